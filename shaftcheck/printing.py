@@ -1,0 +1,194 @@
+"""Terminal output of the commands (rich tables). Presentation only: no formula lives here."""
+
+from __future__ import annotations
+
+import math
+
+from rich.console import Console
+from rich.table import Table
+
+from .cautions import CAUTION_LINE
+
+console = Console()
+
+
+def _num(x, digits: int = 3) -> str:
+    if x is None or (isinstance(x, float) and math.isnan(x)):
+        return "-"
+    if isinstance(x, float) and math.isinf(x):
+        return "inf"
+    ax = abs(x)
+    if ax >= 1e5 or (0 < ax < 1e-3):
+        return f"{x:.3g}"
+    return f"{x:.{digits}g}" if ax < 1 else f"{x:,.{max(digits - len(str(int(ax))), 0) + 1}f}"
+
+
+def fmt(x) -> str:
+    """A value for a table cell: about four significant figures."""
+    if x is None:
+        return "-"
+    if isinstance(x, float):
+        if math.isnan(x):
+            return "-"
+        if math.isinf(x):
+            return "inf"
+        if x != 0 and (abs(x) >= 1e6 or abs(x) < 1e-3):
+            return f"{x:.3g}"
+        if abs(x) >= 100:
+            return f"{x:,.1f}"
+        return f"{x:.3f}" if abs(x) < 10 else f"{x:.2f}"
+    return str(x)
+
+
+def _margin(m: float) -> str:
+    if math.isinf(m):
+        return "-"
+    return f"{100 * m:+.0f} %"
+
+
+def print_check(result) -> None:
+    d = result.design
+    t = Table(title=f"{d.project.name} - rev {d.project.revision} ({d.project.date})",
+              title_justify="left", show_lines=False)
+    for col in ("check", "side", "where", "value", "limit", "unit", "margin", "verdict"):
+        t.add_column(col, overflow="fold", justify="right" if col in
+                     ("value", "limit", "margin") else "left")
+    for c in result.checks:
+        ok = c.passed
+        t.add_row(c.title, c.side, c.location, fmt(c.value),
+                  ("<= " if c.sense == "max" else ">= ") + fmt(c.limit), c.unit, _margin(c.margin),
+                  "[green]met[/green]" if ok else "[bold red]NOT MET[/bold red]")
+    console.print(t)
+    s = result.sides
+    console.print(
+        f"stiffness: left {s['left']['torsional_stiffness_nm_per_deg']:.1f} N*m/deg, right "
+        f"{s['right']['torsional_stiffness_nm_per_deg']:.1f} N*m/deg, mismatch "
+        f"{result.stiffness_mismatch_pct:.2f} %; design torque "
+        f"{s['left']['design_torque_nm']:.0f} N*m per side")
+    for n in result.notices:
+        console.print(f"note: {n}")
+    n_fail = len(result.failed)
+    if n_fail == 0:
+        console.print(f"[bold green]VERDICT: all {len(result.checks)} checks met[/bold green]")
+    else:
+        console.print(f"[bold red]VERDICT: {n_fail} of {len(result.checks)} checks NOT met"
+                      "[/bold red]")
+    console.print(CAUTION_LINE, style="yellow")
+
+
+def print_materials(mats: dict) -> None:
+    t = Table(title="shaftcheck material library", title_justify="left", show_lines=True)
+    for col in ("id", "name", "E GPa", "G GPa", "S_ut MPa", "S_y MPa", "finish", "basis",
+                "source"):
+        t.add_column(col, overflow="fold")
+    for k, m in mats.items():
+        t.add_row(k, m.name, f"{m.elastic_modulus / 1e9:.0f}", f"{m.shear_modulus / 1e9:.1f}",
+                  f"{m.ultimate_strength / 1e6:.0f}", f"{m.yield_strength / 1e6:.0f}",
+                  m.surface_finish, m.basis, m.source)
+    console.print(t)
+    console.print("Values marked [M] are from memory: verify them in the named source before "
+                  "release. A design's own [materials] table shadows these ids.")
+
+
+def print_sizes(p, top: int) -> None:
+    d = p.to_dict(top)
+    console.print(f"resize {d['side']} segment [{d['segment_index']}] ({d['segment']}) to match "
+                  f"{d['target_stiffness_nm_per_deg']:.1f} N*m/deg (now "
+                  f"{d['current_stiffness_nm_per_deg']:.1f}, mismatch "
+                  f"{d['current_mismatch_pct']:.2f} %)")
+    t = Table(title="proposals, lightest first", title_justify="left")
+    for col in ("proposal", "section", "mass kg", "side N*m/deg", "mismatch %",
+                "nominal shear MPa", "static safety", "note"):
+        t.add_column(col, overflow="fold")
+    for r in d["free"] + d["standard"]:
+        t.add_row(r["kind"], r["section"], fmt(r["mass_kg"]),
+                  fmt(r["side_stiffness_nm_per_deg"]), fmt(r["mismatch_pct"]),
+                  fmt(r["nominal_shear_mpa"]), fmt(r["static_safety"]), r.get("note", ""))
+    console.print(t)
+    console.print(f"standard sizes: {d['standard_origin']}")
+    console.print(CAUTION_LINE, style="yellow")
+
+
+def print_bearing(b: dict) -> None:
+    console.print(f"intermediate shaft on the {b['side']} side: length {b['length_mm']:.1f} mm "
+                  f"({'placed by shaftcheck' if b['placed'] else 'given in the design'})")
+    c = b["bearing_centre_mm"]
+    console.print(f"bearing centre (vehicle axes): x {c[0]:.1f}, y {c[1]:.1f}, z {c[2]:.1f} mm")
+    ok = b["criterion_met"]
+    console.print(f"largest left-right angle difference over travel: "
+                  f"{b['max_angle_difference_deg']:.3f} deg (limit "
+                  f"{b['angle_difference_limit_deg']:.2f} deg) -> "
+                  + ("[green]met[/green]" if ok else "[bold red]cannot be met[/bold red]"))
+    t = Table(title="joint angles over wheel travel, rack centred (deg)", title_justify="left")
+    for col in ("travel mm", "L inboard", "R inboard", "L outboard", "R outboard"):
+        t.add_column(col, justify="right")
+    a = b["angles"]
+    for i, tr in enumerate(a["travel_mm"]):
+        t.add_row(f"{tr:+.0f}", *(f"{a[k][i]:.2f}" for k in
+                                  ("left_inboard_deg", "right_inboard_deg",
+                                   "left_outboard_deg", "right_outboard_deg")))
+    console.print(t)
+    lo = b["loads"]
+    console.print(f"bearing radial load at design torque: {lo['radial_load_design_n']:.0f} N; "
+                  f"equivalent duty-cycle load {lo['equivalent_load_n']:.0f} N")
+    life = b["life"]
+    console.print(f"basic rating life L10 (ISO 281): {fmt(life['l10_million_rev'])} million rev, "
+                  f"{fmt(life['l10_hours'])} h at {life['speed_rpm']:.0f} rpm, "
+                  f"{fmt(life['l10_km'])} km")
+    console.print(CAUTION_LINE, style="yellow")
+
+
+def print_sweep(data: dict) -> None:
+    for side in ("left", "right"):
+        s = data[side]
+        t = Table(title=f"{side} side: inboard / outboard angle (deg) and plunge (mm); "
+                  "rows travel, columns rack", title_justify="left")
+        t.add_column("travel \\ rack", justify="right")
+        for r in data["rack_mm"]:
+            t.add_column(f"{r:+.0f}", justify="right")
+        for i, tr in enumerate(data["travel_mm"]):
+            t.add_row(f"{tr:+.0f}", *(f"{s['inboard_angle_deg'][i][j]:.1f}/"
+                                      f"{s['outboard_angle_deg'][i][j]:.1f}/"
+                                      f"{s['plunge_mm'][i][j]:+.1f}"
+                                      for j in range(len(data["rack_mm"]))))
+        console.print(t)
+
+
+def print_pull(res: dict) -> None:
+    d = res["design_point"]
+    t = Table(title="steering-axis moment budget at design torque and design position (N*m, "
+              "positive steers left)", title_justify="left")
+    for col in ("mechanism", "left", "right", "net"):
+        t.add_column(col, justify="right" if col != "mechanism" else "left")
+    for m in d["mechanisms"]:
+        t.add_row(m["name"], fmt(m["left_nm"]), fmt(m["right_nm"]), fmt(m["net_nm"]))
+    console.print(t)
+    console.print(f"steering-wheel torque at design: {d['steering_wheel_torque_nm']:+.3f} N*m "
+                  f"(rack force {d['rack_force_n']:+.1f} N)")
+    t = Table(title="worst cases", title_justify="left")
+    for col in ("condition", "steering-wheel torque N*m", "where", "dominant mechanism"):
+        t.add_column(col)
+    for w in res["worst_cases"]:
+        t.add_row(w["condition"], f"{w['steering_wheel_torque_nm']:+.3f}", w["where"],
+                  w["dominant_mechanism"])
+    console.print(t)
+    tr = res.get("transient")
+    if tr:
+        console.print(f"transient ({tr['differential']} differential): peak wheel-torque "
+                      f"difference {tr['peak_torque_difference_nm']:.2f} N*m at "
+                      f"{tr['peak_torque_difference_time_s'] * 1e3:.0f} ms; peak steering-wheel "
+                      f"torque {tr['peak_steering_wheel_torque_nm']:+.3f} N*m")
+        console.print(tr["statement"])
+    console.print(CAUTION_LINE, style="yellow")
+
+
+def print_tolerance(res: dict) -> None:
+    t = Table(title=f"Monte Carlo of tolerances, {res['samples']} samples (seed {res['seed']})",
+              title_justify="left")
+    for col in ("quantity", "nominal", "mean", "p0.135", "p99.865", "fraction over limit"):
+        t.add_column(col, justify="right" if col != "quantity" else "left")
+    for q in res["quantities"]:
+        t.add_row(q["name"], fmt(q["nominal"]), fmt(q["mean"]), fmt(q["p_low"]),
+                  fmt(q["p_high"]), f"{100 * q['fraction_over_limit']:.2f} %")
+    console.print(t)
+    console.print(CAUTION_LINE, style="yellow")

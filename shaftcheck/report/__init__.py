@@ -1,0 +1,1 @@
+"""PDF release report (reportlab); renders Result records, holds no formula."""
