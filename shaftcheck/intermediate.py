@@ -70,7 +70,8 @@ def _zero_rack(poses: CornerPoses) -> tuple[np.ndarray, np.ndarray]:
 def _right_angles(length, right_outboard, right_spindle, output_point, output_axis):
     """Right-side angles (n_len, nt) for inboard joints at output_point + length * axis."""
     inboard = output_point + np.asarray(length, float)[:, None] * output_axis  # (n_len, 3)
-    geo = joint_geometry(inboard[:, None, :], output_axis, right_outboard[None], right_spindle[None])
+    geo = joint_geometry(inboard[:, None, :], output_axis, right_outboard[None],
+                         right_spindle[None])
     return geo.inboard_angle, geo.outboard_angle
 
 

@@ -135,6 +135,9 @@ class TableCorner:
         r = np.asarray(rack_mm, float)
         travel, rack = _grid_axes(t, r, path_label)
         nt, nr = travel.size, rack.size
+        if nt < 2 or nr < 2:
+            raise DesignError(path_label, "a table corner needs at least two travel_mm and two "
+                              "rack_mm values")
         norms = np.linalg.norm(np.asarray(spindle, float), axis=-1)
         bad = np.flatnonzero(np.abs(norms - 1.0) > 1e-3)
         if bad.size:
@@ -165,9 +168,6 @@ class TableCorner:
         def interp(values):
             if values is None:
                 return None
-            if self.travel.size < 2 or self.rack.size < 2:
-                raise DesignError("table", "a table corner needs at least two travel and two "
-                                  "rack values")
             f = RegularGridInterpolator((self.travel, self.rack), values, method="linear")
             return f(query)
 
@@ -208,13 +208,13 @@ def _grid_axes(t: np.ndarray, r: np.ndarray, label: str) -> tuple[np.ndarray, np
             raise DesignError(f"{label}:row {n + 1}",
                               f"(travel_mm {t[n]:g}, rack_mm {r[n]:g}) {what} row {n}; rows must "
                               "be sorted by travel_mm, then rack_mm, each pair once")
-    for i, tv in enumerate(travel):
+    for tv in travel:
         rows = np.flatnonzero(t == tv)
         if rows.size != nr or np.any(r[rows] != rack):
             raise DesignError(f"{label}:row {rows[0] + 1}",
-                              f"travel_mm {tv:g} does not have the same rack_mm values as travel_mm "
-                              f"{travel[0]:g} ({', '.join(f'{x:g}' for x in rack)}): the grid "
-                              "must be full")
+                              f"travel_mm {tv:g} does not have the same rack_mm values as "
+                              f"travel_mm {travel[0]:g} ({', '.join(f'{x:g}' for x in rack)}): "
+                              "the grid must be full")
     return travel, rack
 
 

@@ -57,6 +57,9 @@ REFERENCES: dict[str, Reference] = {
     "notes_joint_angles": Reference(
         "shaftcheck reference notes, kinematics_and_torque_steer.md §3.2: joint angles as angles "
         "between 3-D unit vectors (output axis, shaft axis, spindle axis) [DER]", "C"),
+    "mh_spline_root": Reference(
+        "Machinery's Handbook, 27th ed., Involute splines - spline stresses (ANSI B92.1 / SAE): "
+        "shear under the roots of external teeth S_s = 16 T K_a / (pi D_re^3 K_f)", "M"),
     # --- criteria defaults -------------------------------------------------------------------
     "practice": Reference("Common practice, no published source", "P"),
     # --- strength (stress concentration, fatigue, buckling, whirl) -----------------------------

@@ -12,9 +12,10 @@ Sections assessed (segment index 0-based, inboard to outboard):
   :func:`shaftcheck.sections.step_concentrations` (sharp-shoulder 2.2 without a fillet radius),
   K_fs = 1 + q_s (K_ts - 1) with the Neuber/Shigley q_s at the fillet radius (q_s = 1 without a
   radius: Shigley's "K_f = K_t when in doubt");
-* every spline root: nominal shear on the minor diameter times the DIN 743-2 involute-spline
-  notch factor beta_tau, used for both the static and the fatigue check (beta_tau is a fatigue
-  notch factor; using it statically is a conservative project choice).
+* every spline root: static check on the nominal shear at the minor (root) diameter, the
+  "shear under the roots" of ANSI B92.1 as given in Machinery's Handbook (``mh_spline_root``,
+  from memory); fatigue with the DIN 743-2 involute-spline notch factor beta_tau as K_fs
+  (beta_tau is a fatigue notch factor, not an elastic peak factor, so it is not used statically).
 
 Static check: peak shear K_ts tau_nom against S_sy = 0.577 S_y (halfshaft practice checks yield
 at the notch root, notes §5). Fatigue: K_fs on alternating and mean shear (Shigley ch. 7), mean
@@ -85,8 +86,8 @@ def shaft_sections(segments: Sequence[Segment], material,
         if s.kind == "spline":
             beta = involute_spline_beta_tau(sut, s.minor_diameter)
             out.append(Section(Location(i, s.kind, "spline root"), s.minor_diameter,
-                               s.inner_diameter, beta.value, beta.value, beta.valid, beta.note,
-                               ("din743_2", "roark7_t10_1"),
+                               s.inner_diameter, 1.0, beta.value, beta.valid, beta.note,
+                               ("din743_2", "mh_spline_root"),
                                _marin(material, s.minor_diameter, reliability)))
         else:
             out.append(Section(Location(i, s.kind, "body"), s.outer_diameter, s.inner_diameter,
@@ -292,11 +293,11 @@ def _buckling(segments, material, torque: float) -> tuple[BucklingResult, ...]:
 
 
 def _whirl(segments, material, max_speed, joint_masses, extra_length, point_masses):
+    if min(extra_length) < 0:
+        raise ValueError("extra_length must be >= 0")
     spans = wh.spans_from_segments(segments, material.elastic_modulus, material.density)
     ext = [wh.BeamSpan(e, sp.bending_stiffness, sp.mass_per_length)
            for e, sp in ((extra_length[0], spans[0]), (extra_length[1], spans[-1]))]
-    if min(extra_length) < 0:
-        raise ValueError("extra_length must be >= 0")
     spans = ([ext[0]] if extra_length[0] > 0 else []) + spans + (
         [ext[1]] if extra_length[1] > 0 else [])
     total = sum(s.length for s in spans)

@@ -173,8 +173,8 @@ def torsional_natural_frequency(stiffness: float, inertia: float,
     Source: W. T. Thomson, *Theory of Vibration with Applications* (two-disc torsional system,
     from memory); key ``thomson_torsional``.
 
-    >>> round(torsional_natural_frequency(5068.5, 1.0, 0.2) / (2 * math.pi), 2)  # notes §8
-    27.76
+    >>> round(torsional_natural_frequency(5068.5, 1.0, 0.2) / (2 * math.pi), 3)  # notes §8
+    27.755
     """
     if stiffness <= 0 or inertia <= 0 or other_inertia <= 0:
         raise ValueError("stiffness and inertias must be positive")

@@ -341,6 +341,12 @@ def test_table_missing_required_column():
         parse_corner_table(text, "t.csv")
 
 
+def test_table_needs_two_values_per_axis():
+    wc, sp = np.array([[0.0, 0.75, 0.3]] * 2), np.array([[0.0, 1.0, 0.0]] * 2)
+    with pytest.raises(DesignError, match="at least two"):
+        TableCorner.from_rows([0.0, 0.0], [-5.0, 5.0], wc, sp, path_label="x.csv")
+
+
 def test_table_from_rows_direct():
     wc = np.array([[0.0, 0.75, 0.3]] * 4)
     sp = np.array([[0.0, 1.0, 0.0]] * 4)
