@@ -12,17 +12,6 @@ from .cautions import CAUTION_LINE
 console = Console()
 
 
-def _num(x, digits: int = 3) -> str:
-    if x is None or (isinstance(x, float) and math.isnan(x)):
-        return "-"
-    if isinstance(x, float) and math.isinf(x):
-        return "inf"
-    ax = abs(x)
-    if ax >= 1e5 or (0 < ax < 1e-3):
-        return f"{x:.3g}"
-    return f"{x:.{digits}g}" if ax < 1 else f"{x:,.{max(digits - len(str(int(ax))), 0) + 1}f}"
-
-
 def fmt(x) -> str:
     """A value for a table cell: about four significant figures."""
     if x is None:
@@ -49,15 +38,20 @@ def _margin(m: float) -> str:
 def print_check(result) -> None:
     d = result.design
     t = Table(title=f"{d.project.name} - rev {d.project.revision} ({d.project.date})",
-              title_justify="left", show_lines=False)
-    for col in ("check", "side", "where", "value", "limit", "unit", "margin", "verdict"):
-        t.add_column(col, overflow="fold", justify="right" if col in
-                     ("value", "limit", "margin") else "left")
+              title_justify="left", show_lines=False, expand=True)
+    t.add_column("check (governing location)", ratio=1, overflow="fold")
+    t.add_column("side", no_wrap=True)
+    t.add_column("value", justify="right", no_wrap=True)
+    t.add_column("limit", justify="right", no_wrap=True)
+    t.add_column("margin", justify="right", no_wrap=True)
+    t.add_column("verdict", no_wrap=True)
     for c in result.checks:
-        ok = c.passed
-        t.add_row(c.title, c.side, c.location, fmt(c.value),
-                  ("<= " if c.sense == "max" else ">= ") + fmt(c.limit), c.unit, _margin(c.margin),
-                  "[green]met[/green]" if ok else "[bold red]NOT MET[/bold red]")
+        unit = "" if c.unit == "-" else f" {c.unit}"
+        where = f"\n[dim]{c.location}[/dim]" if c.location else ""
+        t.add_row(f"{c.title}{where}", c.side, fmt(c.value) + unit,
+                  ("<= " if c.sense == "max" else ">= ") + fmt(c.limit) + unit,
+                  _margin(c.margin),
+                  "[green]met[/green]" if c.passed else "[bold red]NOT MET[/bold red]")
     console.print(t)
     s = result.sides
     console.print(
@@ -140,18 +134,17 @@ def print_bearing(b: dict) -> None:
 
 def print_sweep(data: dict) -> None:
     for side in ("left", "right"):
-        s = data[side]
-        t = Table(title=f"{side} side: inboard / outboard angle (deg) and plunge (mm); "
-                  "rows travel, columns rack", title_justify="left")
-        t.add_column("travel \\ rack", justify="right")
-        for r in data["rack_mm"]:
-            t.add_column(f"{r:+.0f}", justify="right")
-        for i, tr in enumerate(data["travel_mm"]):
-            t.add_row(f"{tr:+.0f}", *(f"{s['inboard_angle_deg'][i][j]:.1f}/"
-                                      f"{s['outboard_angle_deg'][i][j]:.1f}/"
-                                      f"{s['plunge_mm'][i][j]:+.1f}"
-                                      for j in range(len(data["rack_mm"]))))
-        console.print(t)
+        for key, label, unit in (("inboard_angle_deg", "inboard joint angle", "deg"),
+                                 ("outboard_angle_deg", "outboard joint angle", "deg"),
+                                 ("plunge_mm", "plunge (+ longer)", "mm")):
+            t = Table(title=f"{side} side: {label} [{unit}]; rows wheel travel [mm], columns "
+                      "rack travel [mm]", title_justify="left")
+            t.add_column("travel", justify="right")
+            for r in data["rack_mm"]:
+                t.add_column(f"{r:+.0f}", justify="right")
+            for i, tr in enumerate(data["travel_mm"]):
+                t.add_row(f"{tr:+.0f}", *(f"{v:.1f}" for v in data[side][key][i]))
+            console.print(t)
 
 
 def print_pull(res: dict) -> None:
@@ -185,10 +178,13 @@ def print_pull(res: dict) -> None:
 def print_tolerance(res: dict) -> None:
     t = Table(title=f"Monte Carlo of tolerances, {res['samples']} samples (seed {res['seed']})",
               title_justify="left")
-    for col in ("quantity", "nominal", "mean", "p0.135", "p99.865", "fraction over limit"):
+    for col in ("quantity", "nominal", "mean", "-3 sigma", "+3 sigma", "over limit"):
         t.add_column(col, justify="right" if col != "quantity" else "left")
+    labels = {"stiffness_mismatch_pct": "stiffness mismatch [%]",
+              "inboard_angle_difference_deg": "inboard angle difference [deg]",
+              "outboard_angle_difference_deg": "outboard angle difference [deg]"}
     for q in res["quantities"]:
-        t.add_row(q["name"], fmt(q["nominal"]), fmt(q["mean"]), fmt(q["p_low"]),
+        t.add_row(labels.get(q["name"], q["name"]), fmt(q["nominal"]), fmt(q["mean"]), fmt(q["p_low"]),
                   fmt(q["p_high"]), f"{100 * q['fraction_over_limit']:.2f} %")
     console.print(t)
     console.print(CAUTION_LINE, style="yellow")
