@@ -14,6 +14,10 @@ __version__ = "0.1.0"
 
 __all__ = ["load_design", "evaluate", "write_report", "__version__"]
 
+# Imported eagerly (it is light: no numpy at import) so that the name ``shaftcheck.evaluate`` is
+# the function, not the submodule of the same name.
+from .evaluate import evaluate  # noqa: E402
+
 
 def load_design(path):
     """Read and validate a design file (TOML, format 1) -> Design."""
@@ -21,12 +25,6 @@ def load_design(path):
 
     return _load(path)
 
-
-def evaluate(design, **options):
-    """Run every check on a Design -> Result."""
-    from .evaluate import evaluate as _evaluate
-
-    return _evaluate(design, **options)
 
 
 def write_report(result, path, *, overwrite: bool = False):

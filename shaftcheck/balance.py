@@ -54,7 +54,7 @@ def side_stiffness(side) -> SideStiffness:
     ks = [p[3] for p in parts]
     shares = compliance_shares(ks)
     elements = tuple(Element(lbl, part, idx, k, sh) for (lbl, part, idx, k), sh
-                     in zip(parts, shares))
+                     in zip(parts, shares, strict=True))
     return SideStiffness(side.name, series_stiffness(shaft), series_stiffness(ks), elements)
 
 

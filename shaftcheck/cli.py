@@ -11,7 +11,6 @@ import json
 import os
 import sys
 from pathlib import Path
-from typing import Optional
 
 import typer
 
@@ -93,11 +92,11 @@ def check(design: Path = DesignArg, json_: bool = JsonOpt,
 @guarded
 def size(design: Path = DesignArg,
          side: str = typer.Option(..., "--side", help="Side to resize: left or right."),
-         segment: Optional[int] = typer.Option(None, help="Index of the segment to resize "
+         segment: int | None = typer.Option(None, help="Index of the segment to resize "
                                                "(default: the longest solid or tube segment)."),
-         wall: Optional[float] = typer.Option(None, help="Wall for the free-diameter tube "
+         wall: float | None = typer.Option(None, help="Wall for the free-diameter tube "
                                               "\\[mm] (default: the segment's, else 3.0)."),
-         outer_diameter: Optional[float] = typer.Option(
+         outer_diameter: float | None = typer.Option(
              None, help="Outer diameter for the free-wall tube \\[mm] (default: the segment's)."),
          top: int = typer.Option(8, help="How many standard sizes to list."),
          json_: bool = JsonOpt):
@@ -154,7 +153,7 @@ def bearing(design: Path = DesignArg, json_: bool = JsonOpt,
 def sweep(design: Path = DesignArg,
           travel_step: float = typer.Option(10.0, help="Wheel-travel step \\[mm]."),
           rack_step: float = typer.Option(25.0, help="Rack-travel step \\[mm]."),
-          csv: Optional[Path] = typer.Option(None, "--csv", help="Also write the grid as CSV."),
+          csv: Path | None = typer.Option(None, "--csv", help="Also write the grid as CSV."),
           overwrite: bool = typer.Option(False, help="Allow --csv to replace an existing file."),
           json_: bool = JsonOpt):
     """Joint angles and plunge of both sides over the wheel-travel x rack grid.
@@ -182,7 +181,7 @@ def sweep(design: Path = DesignArg,
 @app.command()
 @guarded
 def pull(design: Path = DesignArg, json_: bool = JsonOpt,
-         map_: Optional[Path] = typer.Option(None, "--map", help="Write steering-wheel torque "
+         map_: Path | None = typer.Option(None, "--map", help="Write steering-wheel torque "
                                              "over drive torque x travel (and roll) as CSV."),
          overwrite: bool = typer.Option(False, help="Allow --map to replace an existing file.")):
     """Torque steer: moment budget by mechanism, over travel, roll, steer and throttle; transient.

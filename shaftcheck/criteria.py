@@ -66,7 +66,8 @@ def read_criteria(t: Table | None) -> Criteria:
     base = Criteria()
     values = {}
     for name in _NUMERIC:
-        unit = name.rsplit("_", 1)[-1] if name.endswith(("_pct", "_deg", "_nm", "_mm", "_km")) else ""
+        suffix = name.rsplit("_", 1)[-1]
+        unit = suffix if suffix in ("pct", "deg", "nm", "mm", "km") else ""
         if name == "reliability_pct":
             values[name] = t.number(name, "%", default=base.reliability_pct, lo=50.0, hi=99.9999)
         else:

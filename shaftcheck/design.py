@@ -112,7 +112,7 @@ class Corner:
     wheel_centre: tuple | None = None
     spindle_axis: tuple | None = None
 
-    def mirrored(self) -> "Corner":
+    def mirrored(self) -> Corner:
         def m(p):
             return None if p is None else (p[0], -p[1], p[2])
 

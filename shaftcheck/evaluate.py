@@ -9,8 +9,6 @@ from __future__ import annotations
 
 import math
 
-import numpy as np
-
 from .balance import mismatch_pct, side_stiffness
 from .loads import load_cases
 from .result import Check, Result
@@ -21,11 +19,6 @@ RAD2DEG = 180.0 / math.pi
 NMRAD_TO_NMDEG = math.pi / 180.0
 
 
-def _unit(v):
-    v = np.asarray(v, dtype=float)
-    return v / np.linalg.norm(v, axis=-1, keepdims=True)
-
-
 def design_geometry(design, intermediate_lengths: dict | None = None) -> dict:
     """Joint centres, axes, angles [rad] and joint-centre distance [m] of both sides at design.
 
@@ -33,6 +26,8 @@ def design_geometry(design, intermediate_lengths: dict | None = None) -> dict:
     outboard angle = angle(O - I, b), as 3-D unit-vector angles (reference notes §1.5).
     ``intermediate_lengths`` overrides an intermediate shaft's length (side -> [m]).
     """
+    import numpy as np
+
     from .kinematics import joint_geometry
     from .study import design_corner_points
 
@@ -138,7 +133,7 @@ def evaluate(design, *, travel_points: int = 35, rack_points: int = 15) -> Resul
     result.checks.extend(strength_checks)
     from .pull_study import pull_checks, pull_study
 
-    pull = pull_study(design)
+    pull = pull_study(design, intermediate_lengths=study.intermediate_lengths)
     result.sections["torque_steer"] = pull
     result.checks.extend(pull_checks(design, pull))
     return result

@@ -84,7 +84,7 @@ def size_factor(diameter: float) -> float:
 
 def reliability_factor(reliability: float) -> float:
     """Marin reliability factor k_e = 1 - 0.08 z_a, with the exact standard-normal quantile
-    z_a = Phi^-1(R) from scipy.stats.norm.ppf (Shigley's Table 6-5 rounds z_a).
+    z_a = Phi^-1(R) from statistics.NormalDist().inv_cdf (exact; Shigley's Table 6-5 rounds z_a).
 
     Parameters: reliability R, 0.5 <= R < 1 [-].
     Source: Shigley 10th ed. eq. 6-29 and Table 6-5 (8% standard deviation of S_e); key
@@ -93,11 +93,11 @@ def reliability_factor(reliability: float) -> float:
     >>> round(reliability_factor(0.99), 5)   # notes §4.1 [C] exact quantile
     0.81389
     """
-    from scipy.stats import norm
+    from statistics import NormalDist
 
     if not 0.5 <= reliability < 1.0:
         raise ValueError("reliability must be in [0.5, 1)")
-    return 1.0 - 0.08 * float(norm.ppf(reliability))
+    return 1.0 - 0.08 * NormalDist().inv_cdf(reliability)
 
 
 def endurance_limit_prime(ultimate_strength: float) -> float:

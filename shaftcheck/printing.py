@@ -184,7 +184,8 @@ def print_tolerance(res: dict) -> None:
               "inboard_angle_difference_deg": "inboard angle difference [deg]",
               "outboard_angle_difference_deg": "outboard angle difference [deg]"}
     for q in res["quantities"]:
-        t.add_row(labels.get(q["name"], q["name"]), fmt(q["nominal"]), fmt(q["mean"]), fmt(q["p_low"]),
+        t.add_row(labels.get(q["name"], q["name"]), fmt(q["nominal"]), fmt(q["mean"]),
+                  fmt(q["p_low"]),
                   fmt(q["p_high"]), f"{100 * q['fraction_over_limit']:.2f} %")
     console.print(t)
     console.print(CAUTION_LINE, style="yellow")

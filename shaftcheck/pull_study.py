@@ -28,15 +28,13 @@ SIDES = ("left", "right")
 RAD2DEG = 180.0 / math.pi
 
 
-def _side_vectors(design, name: str, poses) -> dict:
-    """Arguments of steering_axis_moments (without torque and radius) over a pose grid."""
+def _side_vectors(design, name: str, poses, lengths: dict) -> dict:
+    """Arguments of steering_axis_moments (without torque and radius) over a pose grid;
+    ``lengths``: intermediate-shaft length per side [m]."""
     side = design.side(name)
-    from .study import bearing_lengths
-
     if poses.steering_axis is None or poses.tie_rod_outer is None:
         raise DesignError(f"suspension.{name}_table", "the torque-steer study needs the "
                           "lower_ball_joint_*, strut_top_* and tie_rod_outer_* columns")
-    lengths = bearing_lengths(design)
     I = np.asarray(side.inboard_centre_at(lengths.get(name)))
     shape = poses.outboard_joint_centre.shape
     return {"inboard": np.broadcast_to(I, shape), "output_axis":
@@ -58,7 +56,7 @@ def _tie_rod_inner(design, name: str, poses) -> np.ndarray:
 class _Grid:
     """Poses of both sides on travel x rack and the pieces the moment sums need."""
 
-    def __init__(self, design, travel, rack):
+    def __init__(self, design, travel, rack, lengths: dict):
         from .study import corner_poses
         from .torquesteer import rack_gains, steering_wheel_gains
 
@@ -66,7 +64,7 @@ class _Grid:
         self.vec, self.gain = {}, {}
         for name in SIDES:
             poses = corner_poses(design, name, travel, rack)
-            self.vec[name] = _side_vectors(design, name, poses)
+            self.vec[name] = _side_vectors(design, name, poses, lengths)
             self.gain[name] = rack_gains(_tie_rod_inner(design, name, poses), poses.tie_rod_outer,
                                          poses.lower_ball_joint, poses.steering_axis)
         self.sw_gain = steering_wheel_gains(self.gain["left"], self.gain["right"],
@@ -156,11 +154,16 @@ def _over(design, g: _Grid, torque, sel_left, sel_right):
     return res, net, tsw
 
 
-def pull_study(design, travel_points: int = 41, torque_points: int = 11) -> dict:
-    """The torque-steer study (see module docstring) as a plain dict in trade units."""
-    from .loads import load_cases
-    from .study import grid
+def pull_study(design, travel_points: int = 41, torque_points: int = 11,
+               intermediate_lengths: dict | None = None) -> dict:
+    """The torque-steer study (see module docstring) as a plain dict in trade units.
 
+    intermediate_lengths: side -> [m], when already known (else given or placed here)."""
+    from .loads import load_cases
+    from .study import bearing_lengths, grid
+
+    if intermediate_lengths is None:
+        intermediate_lengths = bearing_lengths(design)
     s, v = design.suspension, design.vehicle
     torque = load_cases(design)["design"]
     travel = grid(*s.travel, travel_points)
@@ -169,7 +172,7 @@ def pull_study(design, travel_points: int = 41, torque_points: int = 11) -> dict
     roll_vals = np.linspace(-roll, roll, 13)
     travel = np.unique(np.concatenate([travel, roll_vals, -roll_vals]))
     rack = grid(*s.rack_travel, 15)
-    g = _Grid(design, travel, rack)
+    g = _Grid(design, travel, rack, intermediate_lengths)
     i0 = int(np.flatnonzero(travel == 0.0)[0])
     j0 = int(np.flatnonzero(rack == 0.0)[0])
 

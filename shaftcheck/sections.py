@@ -17,8 +17,8 @@ Formulas (reference keys in :mod:`shaftcheck.references`):
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
-from typing import Sequence
 
 from .stressconc import SHARP_SHOULDER_KTS, shoulder_fillet_kts
 
@@ -104,7 +104,8 @@ class Segment:
         return f"solid {self.outer_diameter * 1e3:.1f} mm, {L:.0f} mm"
 
 
-def spline_stiffness_diameter(major: float, minor: float, fraction: float = SPLINE_STIFFNESS_FRACTION) -> float:
+def spline_stiffness_diameter(major: float, minor: float,
+                              fraction: float = SPLINE_STIFFNESS_FRACTION) -> float:
     """Equivalent round diameter of a spline for torsional stiffness [m].
 
     d_eq = d_minor + c (d_major - d_minor), c = 0.25 by default (project notes §2.2, FE band

@@ -65,8 +65,9 @@ def strength_study(design) -> tuple[dict, list]:
         others = [r for r in res.static if r.case != "design"]
         if others:
             worst = min(others, key=lambda r: r.safety)
-            checks.append(Check(f"static_abuse_{tag}", f"First yield under {worst.case.replace('_', ' ')}"
-                                f" torque {worst.torque:.0f} N*m{title}", name, worst.safety,
+            case = worst.case.replace("_", " ")
+            checks.append(Check(f"static_abuse_{tag}", f"First yield under {case} torque "
+                                f"{worst.torque:.0f} N*m{title}", name, worst.safety,
                                 crit.abuse_safety_min, "-", "min", _where(shaft, worst.location),
                                 "shigley_ch5_de"))
         if res.fatigue is not None:

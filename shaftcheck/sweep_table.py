@@ -50,7 +50,7 @@ def sweep_csv(data: dict) -> str:
             row = [f"{t:.3f}", f"{r:.3f}"]
             for side in ("left", "right"):
                 d = data[side]
-                row += [f"{d['inboard_angle_deg'][i][j]:.4f}", f"{d['outboard_angle_deg'][i][j]:.4f}",
-                        f"{d['plunge_mm'][i][j]:.4f}"]
+                row += [f"{d['inboard_angle_deg'][i][j]:.4f}",
+                        f"{d['outboard_angle_deg'][i][j]:.4f}", f"{d['plunge_mm'][i][j]:.4f}"]
             buf.write(",".join(row) + "\n")
     return buf.getvalue()

@@ -11,7 +11,8 @@ from __future__ import annotations
 import difflib
 import math
 import tomllib
-from typing import Any, Iterable
+from collections.abc import Iterable
+from typing import Any
 
 from .errors import DesignError
 
@@ -67,7 +68,9 @@ class Table:
         self.used.add(name)
         if name not in self.data:
             if required:
-                _raise(self.key(name), "missing required key")
+                typo = difflib.get_close_matches(name, list(self.data), n=1, cutoff=0.6)
+                hint = f" (found '{typo[0]}': a misspelling?)" if typo else ""
+                _raise(self.key(name), f"missing required key{hint}")
             return None
         return self.data[name]
 
@@ -158,11 +161,11 @@ class Table:
         return tuple(v)
 
     # ---- nesting ---------------------------------------------------------------------------
-    def table(self, name: str, *, required: bool = True) -> "Table | None":
+    def table(self, name: str, *, required: bool = True) -> Table | None:
         v = self.raw(name, required)
         return None if v is None else Table(v, self.key(name))
 
-    def array_of_tables(self, name: str, *, required: bool = True) -> list["Table"]:
+    def array_of_tables(self, name: str, *, required: bool = True) -> list[Table]:
         v = self.raw(name, required)
         if v is None:
             return []
