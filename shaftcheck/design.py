@@ -383,7 +383,7 @@ def _suspension(t: Table, base_dir: Path) -> Suspension:
             tables[side] = _read_corner_table(base_dir / name, t.key(f"{side}_table"))
     t.done()
     if model == "table" and mirror:
-        tables["right"] = tables["left"].mirrored()
+        tables["right"] = _mirror_table(tables["left"])
     _check_travel_origin(travel, "suspension.travel_mm")
     _check_travel_origin(rack, "suspension.rack_travel_mm")
     return Suspension(model, travel, rack, mirror, left, right, tables.get("left"),
@@ -394,6 +394,19 @@ def _check_travel_origin(rng: tuple, key: str) -> None:
     if not rng[0] <= 0.0 <= rng[1]:
         raise DesignError(key, f"= [{rng[0] * 1e3:g}, {rng[1] * 1e3:g}] mm: the range must "
                           "include the design position 0")
+
+
+def _mirror_table(table):
+    """A table corner mirrored in the vehicle centre plane (y -> -y of every point and axis)."""
+    import dataclasses
+
+    import numpy as np
+
+    flip = np.array([1.0, -1.0, 1.0])
+    return dataclasses.replace(table, **{
+        f: getattr(table, f) * flip for f in ("wheel_centre", "spindle_axis", "lower_ball_joint",
+                                              "strut_top", "tie_rod_outer")
+        if getattr(table, f) is not None})
 
 
 def _read_corner_table(path: Path, key: str):

@@ -45,12 +45,17 @@ def _side_vectors(design, name: str, poses, lengths: dict) -> dict:
 
 
 def _tie_rod_inner(design, name: str, poses) -> np.ndarray:
+    """Tie-rod inner points over the grid [m]; for a table corner, the design point of
+    ``[suspension.<side>] tie_rod_inner_mm`` moved by the rack along +y."""
     if poses.tie_rod_inner is not None:
         return poses.tie_rod_inner
     c = design.suspension.left if name == "left" else design.suspension.right
     if c.tie_rod_inner is None:
-        raise DesignError(f"suspension.{name}.tie_rod_inner_mm", "needed for the rack force")
-    return np.broadcast_to(np.asarray(c.tie_rod_inner), poses.tie_rod_outer.shape)
+        raise DesignError(f"suspension.{name}.tie_rod_inner_mm", "missing: a table corner needs "
+                          "the tie-rod inner point for the rack force")
+    shift = np.zeros(poses.tie_rod_outer.shape)
+    shift[..., 1] = poses.rack[None, :]
+    return np.asarray(c.tie_rod_inner) + shift
 
 
 class _Grid:

@@ -160,6 +160,12 @@ BAD_INPUTS = [
     ("rack_range_without_zero", TUBULAR, _set("suspension.rack_travel_mm", [-75.0, -5.0]),
      "suspension.rack_travel_mm", ["design position 0"]),
     ("wrong_format_version", TUBULAR, _set("format", 2), "format", ["format 1"]),
+    ("limited_slip_without_bias_ratio", TUBULAR, _set("powertrain.differential", "limited_slip"),
+     "powertrain.torque_bias_ratio", ["missing"]),
+    ("bias_ratio_with_open_differential", TUBULAR, _set("powertrain.torque_bias_ratio", 2.0),
+     "powertrain.torque_bias_ratio", ["limited_slip"]),
+    ("efficiency_over_one", TUBULAR, _set("powertrain.efficiency", 1.2),
+     "powertrain.efficiency", ["at most 1"]),
 ]
 
 IDS = [c[0] for c in BAD_INPUTS]

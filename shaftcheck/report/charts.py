@@ -53,7 +53,7 @@ class ClippedLinePlot(LinePlot):
 
 
 def _tick_text(v) -> str:
-    return st.sig(v, 3) if v != 0 else "0"
+    return f"{v:,.6g}" if abs(v) > 1e-9 else "0"
 
 
 def _log_tick_text(v) -> str:

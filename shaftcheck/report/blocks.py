@@ -1,0 +1,48 @@
+"""Small building blocks shared by the report's sections: headings, paragraphs, captions."""
+
+from __future__ import annotations
+
+from reportlab.platypus import CondPageBreak, Paragraph, Spacer
+
+from . import styles as st
+
+
+class Heading(Paragraph):
+    """A section heading; the document adds it to the PDF outline (bookmarks)."""
+
+    def __init__(self, text: str, level: int = 1):
+        super().__init__(st.esc(text), st.H1 if level == 1 else st.H2)
+        self.outline_text = st.clean(text)
+        self.outline_level = level - 1
+
+
+def section(title: str) -> list:
+    """A level-1 heading that starts lower on a page only with room below it."""
+    return [CondPageBreak(60), Heading(title, 1)]
+
+
+def sub(title: str) -> list:
+    return [CondPageBreak(40), Heading(title, 2)]
+
+
+def para(markup: str, style=None) -> Paragraph:
+    return Paragraph(markup, style or st.BODY)
+
+
+def text(plain: str, style=None) -> Paragraph:
+    """A paragraph of plain (unescaped) text."""
+    return Paragraph(st.esc(plain), style or st.BODY)
+
+
+def caption(plain: str) -> Paragraph:
+    return Paragraph(st.esc(plain), st.CAPTION)
+
+
+def bullets(items: list, markup: bool = False) -> list:
+    return [Paragraph(i if markup else st.esc(i), st.BULLET, bulletText="-") for i in items]
+
+
+def gap(h_mm: float = 2.0) -> Spacer:
+    from reportlab.lib.units import mm
+
+    return Spacer(1, h_mm * mm)

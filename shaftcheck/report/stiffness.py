@@ -1,0 +1,109 @@
+"""Section 2: stiffness balance of the two sides, twist shares, sizing proposals."""
+
+from __future__ import annotations
+
+from ..errors import ShaftcheckError
+from . import styles as st
+from .blocks import caption, gap, para, section, sub, text
+from .charts import hbar_chart
+from .tables import data_table
+
+SIDES = ("left", "right")
+
+
+def _stiffness_table(rd: dict, design) -> list:
+    rows = []
+    for name in SIDES:
+        s = rd["sides"][name]
+        rows.append([name, st.fixed(s["torsional_stiffness_nm_per_deg"]),
+                     st.fixed(s["shaft_torsional_stiffness_nm_per_deg"]),
+                     st.fixed(s["twist_at_design_torque_deg"], 2),
+                     st.num(s["design_torque_nm"], 4), st.fixed(s["mass_kg"], 2)])
+    check = next((c for c in rd["checks"] if c["id"] == "stiffness_mismatch"), None)
+    out = [data_table(["Side", "Stiffness, whole side [N*m/deg]", "Shafts only [N*m/deg]",
+                       "Twist at design torque [deg]", "Design torque [N*m]", "Shaft mass [kg]"],
+                      rows, [20, 34, 30, 32, 28, 26], right=(1, 2, 3, 4, 5))]
+    verdict = st.met(check["passed"]) if check else "-"
+    out.append(gap(1.5))
+    out.append(para(
+        f"Mismatch of the whole sides (joints included): "
+        f"<b>{st.fixed(rd['stiffness_mismatch_pct'], 2)} %</b>, limit "
+        f"{st.fixed(design.criteria.stiffness_mismatch_max_pct, 1)} % - {verdict}."))
+    return out
+
+
+def _share_chart(rd: dict) -> list:
+    labels, values, colours, texts = [], [], [], []
+    for name in SIDES:
+        for c in rd["sides"][name]["compliance_shares"]:
+            labels.append(f"{name}: {c['element']}")
+            values.append(c["share_pct"] or 0.0)
+            colours.append(st.SIDE_COLOURS["intermediate" if c["part"] == "intermediate"
+                                           else name])
+            rigid = c["part"] == "joint" and c["stiffness_nm_per_deg"] is None
+            texts.append("rigid (no stiffness given)" if rigid else
+                         f"{c['share_pct']:.1f} %")
+    chart = hbar_chart(labels, values, colours, width_mm=170, value_max=100, value_text=texts,
+                       xlabel="share of the side's twist [%]",
+                       title="Share of each element in its side's twist", label_width=175)
+    return [chart, caption("Each bar is one element's compliance as a share of its side's "
+                           "total (left in teal, right in ochre, intermediate shaft in plum). "
+                           "Joints without a torsional stiffness in the design are rigid.")]
+
+
+def _proposal_rows(p: dict) -> list:
+    rows = []
+    for r in p["free"] + p["standard"]:
+        rows.append([st.esc(r["kind"]), st.esc(r["section"]), st.fixed(r["mass_kg"], 2),
+                     st.fixed(r["side_stiffness_nm_per_deg"]), st.fixed(r["mismatch_pct"], 2),
+                     st.fixed(r["static_safety"], 2), st.esc(r.get("note") or "")])
+    return rows
+
+
+def _proposals(design, rd: dict) -> list:
+    from ..sizing import propose_sizes
+
+    s = rd["sides"]
+    stiffer = "left" if s["left"]["torsional_stiffness_nm_per_deg"] >= \
+        s["right"]["torsional_stiffness_nm_per_deg"] else "right"
+    softer = "right" if stiffer == "left" else "left"
+    out = sub("Sizing proposals (the mismatch is not met)")
+    out.append(text("Each proposal resizes one segment (the longest plain or tubular one) so "
+                    "that its side matches the other side's whole stiffness; everything else "
+                    "stays. Lightest first; standard tubes only where the mismatch is met. "
+                    "Static safety is S_sy over the nominal shear at the design torque, without "
+                    "stress concentration: re-run the full check on the chosen size."))
+    for side, how in ((softer, "stiffen the softer side"), (stiffer, "soften the stiffer side")):
+        try:
+            p = propose_sizes(design, side).to_dict(4)
+        except ShaftcheckError as exc:
+            out.append(text(f"{side} side ({how}): no proposal - {exc}"))
+            continue
+        out.append(para(
+            f"<b>{side} side - {how}</b>: segment [{p['segment_index']}] "
+            f"{st.esc(p['segment'])}, now {st.fixed(p['current_stiffness_nm_per_deg'])} N*m/deg, "
+            f"target {st.fixed(p['target_stiffness_nm_per_deg'])} N*m/deg."))
+        rows = _proposal_rows(p)
+        if rows:
+            out.append(data_table(["Proposal", "Section", "Mass [kg]", "Side [N*m/deg]",
+                                   "Mismatch [%]", "Static safety", "Note"], rows,
+                                  [22, 40, 15, 20, 18, 17, 38], right=(2, 3, 4, 5)))
+        out.append(caption(f"{p['standard_within_limit']} of {p['standard_evaluated']} "
+                           f"standard tubes meet the limit. Standard sizes: "
+                           f"{p['standard_origin']}."))
+    return out
+
+
+def stiffness(result, rd: dict) -> list:
+    out = section("2  Stiffness balance")
+    out.append(text("Unequal torsional stiffness of the two halfshafts makes the wheel torques "
+                    "differ while torque builds up. Each side is a chain of springs in series: "
+                    "joints (where a stiffness is given), spline ends, plain and tubular "
+                    "segments, and the intermediate shaft where there is one."))
+    out += _stiffness_table(rd, result.design)
+    out.append(gap(2))
+    out += _share_chart(rd)
+    check = next((c for c in rd["checks"] if c["id"] == "stiffness_mismatch"), None)
+    if check is not None and not check["passed"]:
+        out += _proposals(result.design, rd)
+    return out

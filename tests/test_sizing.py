@@ -1,0 +1,230 @@
+"""Design loads per side and sizing sections for a target stiffness.
+
+Sources:
+* Design torque: reference notes sections_and_strength.md §9: engine-limited first-gear torque
+  per side T_eng i_1 i_fd eta / 2 for an open differential [M/P], TBR/(1 + TBR) of axle torque
+  for a limited-slip one [M]; wheel-slip torque mu W_wheel r [C check values]; design torque =
+  min of the two [P/M]; DESIGN.md for the dynamic factor.
+* Sizing: J = pi d^4/32, pi (D^4 - d_i^4)/32 (Roark 7th ed. Table 10.1) and springs in series
+  (Shigley ch. 4 [M]); every proposal is re-checked here by hand from those formulas.
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+from conftest import TUBULAR, load_dict, run_cli, write_modified
+
+from shaftcheck.design import load_design
+from shaftcheck.errors import ShaftcheckError
+from shaftcheck.library import load_tube_sizes
+from shaftcheck.loads import (
+    differential_split,
+    engine_limited_torque,
+    load_cases,
+    wheel_slip_torque,
+)
+from shaftcheck.sections import Segment, polar_moment
+from shaftcheck.sizing import bore_for, outer_for, propose_sizes, solid_for
+
+DEG = math.pi / 180
+
+
+# --- design loads --------------------------------------------------------------------------------
+def test_engine_limited_torque_notes_check():
+    # notes §9 [C]: 300 N*m x 3.8 x 4.1 x 0.95 = 4440.3 N*m axle, 2220.15 N*m per side (2 dec.)
+    assert engine_limited_torque(300.0, 3.8, 4.1, 0.95, 0.5) == pytest.approx(2220.15, abs=0.005)
+    assert engine_limited_torque(300.0, 3.8, 4.1, 0.95, 1.0) == pytest.approx(4440.3, abs=0.05)
+
+
+def test_wheel_slip_torque_notes_check():
+    # notes §9 [C]: mu = 1.0, W = 9000 N per wheel, r = 0.30 m -> 2700 N*m (the function takes
+    # the axle load, both wheels: 18 000 N); exact arithmetic to 1e-12
+    assert wheel_slip_torque(1.0, 18000.0, 0.30) == pytest.approx(2700.0, rel=1e-12)
+
+
+def test_differential_split():
+    assert differential_split("open", 1.0) == 0.5  # notes §9 [M/P]
+    assert differential_split("limited_slip", 3.0) == pytest.approx(0.75)  # TBR/(1+TBR) [M]
+    assert differential_split("limited_slip", 2.0) == pytest.approx(2 / 3)
+    assert differential_split("locked", math.inf) == 1.0
+
+
+def _hand_cases(raw: dict) -> tuple[float, float]:
+    """(engine-limited per side, wheel-slip per wheel) [N*m] from the file's numbers."""
+    pt, v = raw["powertrain"], raw["vehicle"]
+    diff = pt.get("differential", "open")
+    tbr = pt.get("torque_bias_ratio", 1.0)
+    split = 0.5 if diff == "open" else tbr / (1 + tbr)
+    engine = (pt["engine_torque_nm"] * pt["first_gear_ratio"] * pt["final_drive_ratio"]
+              * pt.get("efficiency", 0.94) * pt.get("dynamic_factor", 1.0) * split)
+    slip = v["tyre_mu"] * v["front_axle_load_n"] / 2 * v["loaded_radius_mm"] * 1e-3
+    return engine, slip
+
+
+def _edit_loads(**changes):
+    def edit(d):
+        for key, value in changes.items():
+            table, name = key.split("__")
+            d[table][name] = value
+
+    return edit
+
+
+@pytest.mark.parametrize("changes, governs", [
+    ({}, None),
+    # a low-friction surface: wheel slip governs
+    (dict(vehicle__tyre_mu=0.3), "slip"),
+    # a heavy axle on a sticky surface: the engine governs
+    (dict(vehicle__tyre_mu=2.5, vehicle__front_axle_load_n=20000.0), "engine"),
+    # limited slip, TBR 2: two thirds of the axle torque may reach one side
+    (dict(vehicle__tyre_mu=2.5, vehicle__front_axle_load_n=20000.0,
+          powertrain__differential="limited_slip", powertrain__torque_bias_ratio=2.0), "engine"),
+])
+def test_design_torque_is_the_smaller_limit(tmp_path, changes, governs):
+    path = write_modified(tmp_path, TUBULAR, _edit_loads(**changes))
+    raw = load_dict(path)
+    engine, slip = _hand_cases(raw)
+    cases = load_cases(load_design(path))
+    # same arithmetic in another order: 1e-12 relative
+    assert cases["engine_abuse"] == pytest.approx(engine, rel=1e-12)
+    assert cases["wheel_slip"] == pytest.approx(slip, rel=1e-12)
+    assert cases["design"] == pytest.approx(min(engine, slip), rel=1e-12)
+    if governs == "slip":
+        assert slip < engine
+    elif governs == "engine":
+        assert engine < slip
+    if raw["powertrain"].get("differential") == "limited_slip":
+        df = raw["powertrain"].get("dynamic_factor", 1.0)
+        assert cases["bias_split"] == pytest.approx(engine / df, rel=1e-12)
+    else:
+        assert "bias_split" not in cases
+
+
+def test_limited_slip_raises_the_engine_limited_torque(tmp_path):
+    open_ = load_cases(load_design(write_modified(tmp_path, TUBULAR, name="open.toml")))
+    lsd = load_cases(load_design(write_modified(
+        tmp_path, TUBULAR, _edit_loads(powertrain__differential="limited_slip",
+                                       powertrain__torque_bias_ratio=3.0), name="lsd.toml")))
+    # split 3/4 instead of 1/2 (notes §9 [M])
+    assert lsd["engine_abuse"] / open_["engine_abuse"] == pytest.approx(1.5, rel=1e-12)
+
+
+# --- sizing --------------------------------------------------------------------------------------
+def test_closed_form_inverses():
+    # Roark Table 10.1 inverted: each helper returns the geometry whose J is the one asked for
+    J = polar_moment(28e-3)
+    assert solid_for(J) == pytest.approx(28e-3, rel=1e-13)
+    assert polar_moment(35e-3, bore_for(J, 35e-3)) == pytest.approx(J, rel=1e-10)
+    D = outer_for(J, 2.5e-3)
+    assert polar_moment(D, D - 5e-3) == pytest.approx(J, rel=1e-9)
+    assert bore_for(J, 27e-3) is None  # a 27 mm bar is too soft for J(28 mm)
+
+
+def _hand_whole_side(side, index: int, new: Segment) -> float:
+    """Whole-side stiffness [N*m/rad] with segment ``index`` replaced, by hand (series)."""
+    G = side.material.shear_modulus
+    segs = [new if i == index else s for i, s in enumerate(side.segments)]
+    comp = sum(s.length / (G * polar_moment(s.torsion_diameter, s.inner_diameter))
+               for s in segs)
+    for j in (side.inboard_joint, side.outboard_joint):
+        comp += 0.0 if math.isinf(j.torsional_stiffness) else 1 / j.torsional_stiffness
+    if side.intermediate is not None:
+        Gi = side.intermediate.material.shear_modulus
+        comp += sum(s.length / (Gi * s.polar_moment) for s in side.intermediate.segments)
+    return 1 / comp
+
+
+@pytest.mark.parametrize("side_name", ["right", "left"])
+def test_free_proposals_hit_the_target(tubular_design, side_name):
+    props = propose_sizes(tubular_design, side_name)
+    other = tubular_design.side("left" if side_name == "right" else "right")
+    target = _hand_whole_side(other, 0, other.segments[0])  # the other side unchanged
+    assert props.target_stiffness == pytest.approx(target, rel=1e-12)
+    kinds = {p.kind for p in props.free}
+    assert {"free solid", "free tube OD"} <= kinds
+    side = tubular_design.side(side_name)
+    for p in props.free:
+        assert p.mismatch_pct < 1e-6, p  # brentq xtol 1e-12 m: far below 1e-6 %
+        k = _hand_whole_side(side, props.segment_index, p.segment)
+        assert 100 * abs(k - target) / target < 1e-6
+        assert p.segment.length == side.segments[props.segment_index].length
+
+
+def test_free_tube_keeps_the_given_wall_or_outer_diameter(tubular_design):
+    props = propose_sizes(tubular_design, "right", wall=3e-3, outer_diameter=36e-3)
+    by_kind = {p.kind: p for p in props.free}
+    od = by_kind["free tube OD"].segment
+    assert (od.outer_diameter - od.inner_diameter) / 2 == pytest.approx(3e-3, rel=1e-9)
+    assert by_kind["free tube wall"].segment.outer_diameter == pytest.approx(36e-3, rel=1e-15)
+    # an outer diameter below the free solid's cannot be bored: no free-wall proposal
+    small = propose_sizes(tubular_design, "right", outer_diameter=10e-3)
+    assert "free tube wall" not in {p.kind for p in small.free}
+
+
+def test_standard_sizes_ranked_by_mass(tubular_design):
+    props = propose_sizes(tubular_design, "right")
+    origin, sizes = load_tube_sizes()
+    assert origin and len(props.standard) == len(sizes)
+    masses = [p.mass for p in props.standard]
+    assert masses == sorted(masses)
+    rho = tubular_design.right.material.density
+    for p in props.standard:
+        s = p.segment
+        assert p.mass == pytest.approx(rho * math.pi / 4 * (s.outer_diameter**2
+                                                          - s.inner_diameter**2) * s.length,
+                                       rel=1e-12)
+    d = props.to_dict(top=3)
+    assert len(d["standard"]) <= 3
+    assert all(e["mismatch_pct"] <= d["mismatch_limit_pct"] for e in d["standard"])
+    listed = [e["mass_kg"] for e in d["standard"]]
+    assert listed == sorted(listed)
+
+
+def test_current_standard_size_reproduces_current_mismatch(tmp_path):
+    def edit(d):
+        i = next(i for i, s in enumerate(d["right"]["segments"]) if s["kind"] == "tube")
+        d["right"]["segments"][i].update(outer_diameter_mm=35.0, wall_mm=2.5)
+
+    design = load_design(write_modified(tmp_path, TUBULAR, edit))
+    props = propose_sizes(design, "right")
+    same = [p for p in props.standard if math.isclose(p.segment.outer_diameter, 35e-3)
+            and math.isclose(p.segment.inner_diameter, 30e-3)]
+    assert len(same) == 1, "35 x 2.5 mm is expected in materials/tube_sizes.toml"
+    assert same[0].mismatch_pct == pytest.approx(props.current_mismatch, rel=1e-9)
+
+
+def _stiff_left(d):
+    """Left side made far stiffer: every left segment becomes a 45 mm solid."""
+    for s in d["left"]["segments"]:
+        if s["kind"] == "solid":
+            s["diameter_mm"] = 45.0
+
+
+def test_impossible_request_raises(tmp_path):
+    path = write_modified(tmp_path, TUBULAR, _stiff_left)
+    design = load_design(path)
+    short = next(i for i, s in enumerate(design.right.segments)
+                 if s.kind == "solid" and s.length < 0.1)
+    # the rest of the right side (its long tube) is already softer than the new target
+    with pytest.raises(ShaftcheckError, match=rf"right\.segments\[{short}\]"):
+        propose_sizes(design, "right", segment=short)
+    proc = run_cli("size", path, "--side", "right", "--segment", str(short))
+    assert proc.returncode == 2, proc.stderr
+    assert len(proc.stderr.splitlines()) == 1
+    assert proc.stderr.startswith("shaftcheck: error:") and "Traceback" not in proc.stderr
+
+
+def test_bad_segment_index_raises(tubular_design):
+    with pytest.raises(ShaftcheckError, match="--segment"):
+        propose_sizes(tubular_design, "right", segment=99)
+
+
+def test_side_without_solid_or_tube_raises(tmp_path):
+    def edit(d):
+        d["left"]["segments"] = [s for s in d["left"]["segments"] if s["kind"] == "spline"]
+
+    design = load_design(write_modified(tmp_path, TUBULAR, edit))
+    with pytest.raises(ShaftcheckError, match="no solid or tube"):
+        propose_sizes(design, "left")
