@@ -71,17 +71,17 @@ def print_check(result) -> None:
 
 
 def print_materials(mats: dict) -> None:
-    t = Table(title="shaftcheck material library", title_justify="left", show_lines=True)
-    for col in ("id", "name", "E GPa", "G GPa", "S_ut MPa", "S_y MPa", "finish", "basis",
-                "source"):
-        t.add_column(col, overflow="fold")
+    console.print("[bold]shaftcheck material library[/bold] (a design's own \\[materials] table "
+                  "shadows these ids)", markup=True, highlight=False)
     for k, m in mats.items():
-        t.add_row(k, m.name, f"{m.elastic_modulus / 1e9:.0f}", f"{m.shear_modulus / 1e9:.1f}",
-                  f"{m.ultimate_strength / 1e6:.0f}", f"{m.yield_strength / 1e6:.0f}",
-                  m.surface_finish, m.basis, m.source)
-    console.print(t)
-    console.print("Values marked [M] are from memory: verify them in the named source before "
-                  "release. A design's own [materials] table shadows these ids.")
+        console.print(f"\n[bold]{k}[/bold]  {m.name}", highlight=False)
+        console.print(f"  E {m.elastic_modulus / 1e9:.0f} GPa, G {m.shear_modulus / 1e9:.1f} GPa, "
+                      f"nu {m.poisson_ratio:.3f}, {m.density:.0f} kg/m^3; S_ut "
+                      f"{m.ultimate_strength / 1e6:.0f} MPa, S_y {m.yield_strength / 1e6:.0f} MPa "
+                      f"({m.basis}); finish {m.surface_finish}", highlight=False)
+        console.print(f"  source: {m.source}", highlight=False, markup=False)
+    console.print("\nValues marked [M] are from memory: verify them in the named source before "
+                  "release.", markup=False)
 
 
 def print_sizes(p, top: int) -> None:
@@ -90,15 +90,17 @@ def print_sizes(p, top: int) -> None:
                   f"{d['target_stiffness_nm_per_deg']:.1f} N*m/deg (now "
                   f"{d['current_stiffness_nm_per_deg']:.1f}, mismatch "
                   f"{d['current_mismatch_pct']:.2f} %)")
-    t = Table(title="proposals, lightest first", title_justify="left")
-    for col in ("proposal", "section", "mass kg", "side N*m/deg", "mismatch %",
-                "nominal shear MPa", "static safety", "note"):
-        t.add_column(col, overflow="fold")
+    t = Table(title="proposals, lightest first (mass of the resized segment)",
+              title_justify="left")
+    for col in ("proposal", "section", "kg", "mismatch", "shear", "static SF"):
+        t.add_column(col, no_wrap=col != "section", justify="left" if col in
+                     ("proposal", "section") else "right")
     for r in d["free"] + d["standard"]:
-        t.add_row(r["kind"], r["section"], fmt(r["mass_kg"]),
-                  fmt(r["side_stiffness_nm_per_deg"]), fmt(r["mismatch_pct"]),
-                  fmt(r["nominal_shear_mpa"]), fmt(r["static_safety"]), r.get("note", ""))
+        t.add_row(r["kind"], r["section"], f"{r['mass_kg']:.2f}", f"{r['mismatch_pct']:.2f} %",
+                  f"{r['nominal_shear_mpa']:.0f} MPa", f"{r['static_safety']:.2f}")
     console.print(t)
+    console.print("shear: nominal at the design torque; static SF: S_sy / nominal shear (no "
+                  "stress concentration; run check for the full assessment)")
     console.print(f"standard sizes: {d['standard_origin']}")
     console.print(CAUTION_LINE, style="yellow")
 

@@ -64,6 +64,8 @@ def _log_tick_text(v) -> str:
 def _legend_rows(series: list, width: float) -> list:
     rows, row, used = [], [], 0.0
     for s in series:
+        if not s.label:
+            continue
         w = 22 + stringWidth(st.clean(s.label), FONT, LEGEND_SIZE) + 12
         if row and used + w > width:
             rows.append(row)

@@ -48,6 +48,7 @@ GPA = 1e-9  # Pa -> GPa
 DEG = 180.0 / math.pi  # rad -> deg
 KMH = 3.6  # m/s -> km/h
 PCT = 100.0  # fraction -> %
+MS = 1e3  # s -> ms
 
 
 def _style(name, **kw) -> ParagraphStyle:

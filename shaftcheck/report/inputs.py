@@ -1,0 +1,227 @@
+"""Section 6: every design input in trade units (the design file's own keys), materials.
+
+The Design holds SI values; they are shown in the units of the design file's keys by constant
+unit factors only (styles.MM, DEG, ...).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import fields
+
+from ..design import HARD_POINTS
+from . import styles as st
+from .blocks import caption, para, section, sub, text
+from .tables import data_table
+
+SIDES = ("left", "right")
+
+
+def _v(x, digits: int = 4) -> str:
+    if isinstance(x, str):
+        return st.esc(x)
+    if isinstance(x, bool):
+        return "true" if x else "false"
+    if x is None:
+        return "-"
+    if isinstance(x, float) and math.isinf(x):
+        return "infinite"
+    return st.num(x, digits)
+
+
+def _range(r, f=st.MM) -> str:
+    return f"[{r[0] * f:g}, {r[1] * f:g}]"
+
+
+def _kv(rows: list) -> list:
+    return [data_table(["Design file key", "Value"], [[st.esc(k), v] for k, v in rows],
+                       [80, 90])]
+
+
+def _general(design) -> list:
+    v, p, ts, tol = design.vehicle, design.powertrain, design.torque_steer, design.tolerances
+    rows = [
+        ("vehicle.loaded_radius_mm", _v(v.loaded_radius * st.MM)),
+        ("vehicle.front_axle_load_n", _v(v.front_axle_load)),
+        ("vehicle.tyre_mu", _v(v.tyre_mu)),
+        ("vehicle.max_speed_kmh", _v(v.max_speed * st.KMH)),
+        ("vehicle.rack_travel_per_rev_mm", _v(v.rack_travel_per_rev * st.MM)),
+        ("vehicle.mass_kg", _v(v.mass)),
+        ("vehicle.wheel_inertia_kg_m2", _v(v.wheel_inertia)),
+        ("vehicle.tyre_slip_stiffness_n", _v(v.tyre_slip_stiffness)),
+        ("vehicle.tyre_relaxation_length_mm", _v(v.tyre_relaxation_length * st.MM)),
+        ("powertrain.engine_torque_nm", _v(p.engine_torque)),
+        ("powertrain.first_gear_ratio", _v(p.first_gear_ratio)),
+        ("powertrain.final_drive_ratio", _v(p.final_drive_ratio)),
+        ("powertrain.efficiency", _v(p.efficiency)),
+        ("powertrain.differential", _v(p.differential)),
+        ("powertrain.torque_bias_ratio", _v(p.torque_bias_ratio)),
+        ("powertrain.dynamic_factor", _v(p.dynamic_factor)),
+    ]
+    m = p.mounts
+    if m is not None:
+        rows += [("powertrain.mounts.roll_axis_point_mm",
+                  st.point([c * st.MM for c in m.roll_axis_point])),
+                 ("powertrain.mounts.roll_axis", st.point(m.roll_axis, 4)),
+                 ("powertrain.mounts.roll_stiffness_nm_per_deg",
+                  _v(m.roll_stiffness / st.DEG)),
+                 ("powertrain.mounts.misalignment_deg",
+                  st.point([c * st.DEG for c in m.misalignment], 3))]
+    rows += [("torque_steer.split_mu_low", _v(ts.split_mu_low)),
+             ("torque_steer.split_mu_high", _v(ts.split_mu_high)),
+             ("torque_steer.roll_travel_mm", _v(ts.roll_travel * st.MM)),
+             ("torque_steer.throttle_rise_ms", _v(ts.throttle_rise_time * st.MS))]
+    rows += [(f"tolerances.{f.name}_mm", _v(getattr(tol, f.name) * st.MM))
+             for f in fields(tol)]
+    return _kv(rows)
+
+
+def _criteria(design) -> list:
+    c = design.criteria
+    return _kv([(f"criteria.{f.name}", _v(getattr(c, f.name))) for f in fields(c)])
+
+
+def _joints(design) -> list:
+    rows = []
+    for j in design.joints.values():
+        k = "rigid (not given)" if math.isinf(j.torsional_stiffness) else \
+            st.num(j.torsional_stiffness / st.DEG, 4)
+        loss = "kind default" if j.efficiency_loss_per_deg is None else \
+            st.num(j.efficiency_loss_per_deg * st.PCT, 3)
+        plunge = f"{j.plunge_min * st.MM:g} ... {j.plunge_max * st.MM:g}" if j.plunges else \
+            "does not plunge"
+        rows.append([st.esc(j.id), st.esc(j.kind), f"{j.max_angle * st.DEG:g}", plunge, k, loss])
+    return [data_table(["Joint id", "Kind", "max_angle_deg", "plunge_min/max_mm",
+                        "torsional_stiffness_nm_per_deg", "efficiency_loss_pct_per_deg"], rows,
+                       [28, 24, 22, 30, 34, 32], right=(2, 4, 5))]
+
+
+def _suspension(design) -> list:
+    s = design.suspension
+    out = _kv([("suspension.model", _v(s.model)),
+               ("suspension.travel_mm", _range(s.travel)),
+               ("suspension.rack_travel_mm", _range(s.rack_travel)),
+               ("suspension.mirror", _v(s.mirror))])
+    rows = []
+    for name in HARD_POINTS:
+        lp, rp = getattr(s.left, name), getattr(s.right, name)
+        dec = 4 if name == "spindle_axis" else 1
+        scale = 1.0 if name == "spindle_axis" else st.MM
+        key = name if name == "spindle_axis" else f"{name}_mm"
+        rows.append([key, st.point(None if lp is None else [c * scale for c in lp], dec),
+                     st.point(None if rp is None else [c * scale for c in rp], dec)])
+    rows.append(["outboard_joint_offset_mm", _v(s.left.outboard_joint_offset * st.MM),
+                 _v(s.right.outboard_joint_offset * st.MM)])
+    out.append(para(""))
+    out.append(data_table(["Corner hard point (x, y, z)", "Left corner", "Right corner"], rows,
+                          [56, 57, 57]))
+    note = "The right corner is the mirror image of the left." if s.mirror else ""
+    if s.model == "table":
+        note += " Table corners: the kinematics come from the corner tables named in the file."
+    if note:
+        out.append(caption(note.strip()))
+    return out
+
+
+def _sides(design) -> list:
+    rows = []
+    for name in SIDES:
+        sd = design.side(name)
+        rows += [[f"{name}.inboard_joint", st.esc(sd.inboard_joint.id)],
+                 [f"{name}.outboard_joint", st.esc(sd.outboard_joint.id)],
+                 [f"{name}.output_axis", st.point(sd.output_axis, 4)],
+                 [f"{name}.material", st.esc(sd.material.id)]]
+        if sd.inboard_centre is not None:
+            rows.append([f"{name}.inboard_centre_mm",
+                         st.point([c * st.MM for c in sd.inboard_centre])])
+        it = sd.intermediate
+        if it is not None:
+            k = f"{name}.intermediate"
+            rows += [[f"{k}.output_point_mm", st.point([c * st.MM for c in it.output_point])],
+                     [f"{k}.bearing_offset_mm", _v(it.bearing_offset * st.MM)],
+                     [f"{k}.length_mm", "placed by shaftcheck" if it.length is None
+                      else _v(it.length * st.MM)],
+                     [f"{k}.length_range_mm", _range(it.length_range)],
+                     [f"{k}.bearing_dynamic_rating_n", _v(it.bearing_dynamic_rating)],
+                     [f"{k}.material", st.esc(it.material.id)]]
+    return [data_table(["Design file key", "Value"], rows, [80, 90])]
+
+
+def _seg_row(where: str, i: int, s) -> list:
+    def d(x):
+        return "-" if x is None or x == 0 else f"{x * st.MM:g}"
+
+    return [st.esc(where), str(i), s.kind, f"{s.length * st.MM:g}", d(s.outer_diameter),
+            d(s.inner_diameter) if s.kind == "tube" else d(s.minor_diameter),
+            d(s.stiffness_diameter), d(s.fillet_radius)]
+
+
+def _segments(design) -> list:
+    rows = []
+    for name in SIDES:
+        sd = design.side(name)
+        if sd.intermediate is not None:
+            rows += [_seg_row(f"{name} intermediate", i, s)
+                     for i, s in enumerate(sd.intermediate.segments)]
+        rows += [_seg_row(f"{name} halfshaft", i, s) for i, s in enumerate(sd.segments)]
+    return [data_table(["Shaft", "#", "Kind", "Length", "Outer / major", "Inner / minor",
+                        "Stiffness dia.", "Fillet r"], rows, [34, 8, 16, 20, 24, 24, 24, 20],
+                       right=(1, 3, 4, 5, 6, 7)),
+            caption("Segments from the inboard joint outwards, in mm. Inner / minor: bore of a "
+                    "tube, root diameter of a spline; '-' where not given or not applicable.")]
+
+
+def _spectrum(design) -> list:
+    if not design.spectrum:
+        return [para("No duty-cycle spectrum given.")]
+    rows = [[str(i), _v(b.torque_min), _v(b.torque_max), _v(b.cycles, 3)]
+            for i, b in enumerate(design.spectrum)]
+    return [data_table(["Bin", "torque_min_nm", "torque_max_nm", "cycles"], rows,
+                       [14, 36, 36, 36], right=(1, 2, 3))]
+
+
+def materials_used(design) -> list:
+    mats = {}
+    for name in SIDES:
+        sd = design.side(name)
+        mats[sd.material.id] = sd.material
+        if sd.intermediate is not None:
+            mats[sd.intermediate.material.id] = sd.intermediate.material
+    rows = []
+    for m in mats.values():
+        rows.append([f"<b>{st.esc(m.id)}</b><br/>{st.esc(m.name)}",
+                     f"{m.elastic_modulus * st.GPA:g} / {m.shear_modulus * st.GPA:g}",
+                     f"{m.poisson_ratio:g}", f"{m.density:g}",
+                     f"{m.ultimate_strength * st.MPA:g} / {m.yield_strength * st.MPA:g}",
+                     st.esc(f"{m.surface_finish}; {m.basis}; {m.origin}"),
+                     st.esc(m.source)])
+    return [data_table(["Material", "E / G [GPa]", "nu", "Density [kg/m3]",
+                        "S_ut / S_y [MPa]", "Finish; basis; from", "Source"], rows,
+                       [34, 16, 9, 15, 17, 24, 55], right=(1, 2, 3, 4)),
+            caption("Values marked [M] in a source are from memory and must be verified in the "
+                    "named source before release. Heat treatment and case depth are not "
+                    "modelled beyond these strengths.")]
+
+
+def inputs(result, rd: dict) -> list:
+    design = result.design
+    out = section("6  Inputs")
+    out.append(text("Every value of the design file as shaftcheck read it (defaults filled in), "
+                    "under the file's own key names and units."))
+    out += sub("Vehicle, powertrain, torque-steer conditions, tolerances")
+    out += _general(design)
+    out += sub("Acceptance criteria")
+    out += _criteria(design)
+    out += sub("Joints")
+    out += _joints(design)
+    out += sub("Suspension corners")
+    out += _suspension(design)
+    out += sub("Sides and intermediate shaft")
+    out += _sides(design)
+    out += sub("Shaft segments")
+    out += _segments(design)
+    out += sub("Duty-cycle spectrum (per shaft)")
+    out += _spectrum(design)
+    out += sub("Materials and their sources")
+    out += materials_used(design)
+    return out
