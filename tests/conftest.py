@@ -13,8 +13,8 @@ import math
 import re
 import subprocess
 import tomllib
+from collections.abc import Callable
 from pathlib import Path
-from typing import Callable
 
 import pytest
 

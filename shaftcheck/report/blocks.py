@@ -18,11 +18,11 @@ class Heading(Paragraph):
 
 def section(title: str) -> list:
     """A level-1 heading that starts lower on a page only with room below it."""
-    return [CondPageBreak(60), Heading(title, 1)]
+    return [CondPageBreak(150), Heading(title, 1)]
 
 
 def sub(title: str) -> list:
-    return [CondPageBreak(40), Heading(title, 2)]
+    return [CondPageBreak(80), Heading(title, 2)]
 
 
 def para(markup: str, style=None) -> Paragraph:

@@ -53,7 +53,11 @@ class ClippedLinePlot(LinePlot):
 
 
 def _tick_text(v) -> str:
-    return f"{v:,.6g}" if abs(v) > 1e-9 else "0"
+    if abs(v) < 1e-12:
+        return "0"
+    if abs(v) < 1e-3:
+        return f"{v:.3g}".replace("e-0", "e-")
+    return f"{v:,.6g}"
 
 
 def _log_tick_text(v) -> str:

@@ -9,6 +9,7 @@ from .tables import data_table, key_value_table
 
 SIDES = ("left", "right")
 TRAVEL_STEP = 0.005  # [m] chart resolution over wheel travel
+LINE_WIDTH = {"left": 2.2, "right": 1.0}  # the left line stays visible under an equal right
 
 
 def sweep(design) -> dict:
@@ -33,38 +34,41 @@ def _angle_chart(sw: dict) -> list:
     j0 = _rack_index(sw["rack_mm"], 0.0)
     series = []
     for name in SIDES:
-        c = st.SIDE_COLOURS[name]
+        c, w = st.SIDE_COLOURS[name], LINE_WIDTH[name]
         series.append(Series(f"{name} inboard", list(zip(t, _column(
-            sw[name]["inboard_angle_deg"], j0))), c))
+            sw[name]["inboard_angle_deg"], j0))), c, width=w))
         series.append(Series(f"{name} outboard", list(zip(t, _column(
-            sw[name]["outboard_angle_deg"], j0))), c, dash=DASHED))
-    return [line_chart(series, width_mm=170, height_mm=58, xlabel="wheel travel [mm] "
+            sw[name]["outboard_angle_deg"], j0))), c, dash=DASHED, width=w))
+    return [line_chart(series, width_mm=170, height_mm=50, xlabel="wheel travel [mm] "
                        "(positive = bump)", ylabel="joint angle [deg]",
-                       title="Joint angles over wheel travel, rack centred"),
+                       title="Joint angles over wheel travel, rack centred",
+                       xrange=(t[0], t[-1])),
             caption("Inboard (solid) and outboard (dashed) joint angles of both sides. The "
                     "steer-lock extremes are in the table below.")]
 
 
 def _plunge_chart(sw: dict, kin: dict) -> list:
     t, rack = sw["travel_mm"], sw["rack_mm"]
-    poses = [(_rack_index(rack, 0.0), None, 1.3, "rack centred")]
+    poses = [(_rack_index(rack, 0.0), None, 1.0, "rack centred")]
     if len(rack) > 1:
-        poses += [(0, DASHED, 0.9, f"rack {rack[0]:+.0f} mm"),
-                  (len(rack) - 1, DOTTED, 0.9, f"rack {rack[-1]:+.0f} mm")]
+        poses += [(0, DASHED, 0.8, f"rack {rack[0]:+.0f} mm"),
+                  (len(rack) - 1, DOTTED, 0.8, f"rack {rack[-1]:+.0f} mm")]
     series = []
     for name in SIDES:
         for j, dash, w, label in poses:
             series.append(Series(f"{name}, {label}", list(zip(t, _column(
-                sw[name]["plunge_mm"], j))), st.SIDE_COLOURS[name], dash=dash, width=w))
+                sw[name]["plunge_mm"], j))), st.SIDE_COLOURS[name], dash=dash,
+                width=w * LINE_WIDTH[name]))
     limits = {tuple(kin[n]["plunge_limits_mm"]) for n in SIDES if kin.get(n)}
     for k, (lo, hi) in enumerate(sorted(limits)):
         tag = "" if len(limits) == 1 else f" ({k + 1})"
         for v, what in ((lo, "min"), (hi, "max")):
             series.append(Series(f"joint plunge {what}{tag}", [(t[0], v), (t[-1], v)],
                                  st.FAIL, dash=DOTTED, width=0.9))
-    return [line_chart(series, width_mm=170, height_mm=58, xlabel="wheel travel [mm] "
+    return [line_chart(series, width_mm=170, height_mm=50, xlabel="wheel travel [mm] "
                        "(positive = bump)", ylabel="plunge [mm] (positive = extension)",
-                       title="Plunge of the inboard joint over wheel travel"),
+                       title="Plunge of the inboard joint over wheel travel",
+                       xrange=(t[0], t[-1])),
             caption("Plunge is the change of the joint-centre distance from the design "
                     "position, at rack centred and at both rack ends; red dotted lines are the "
                     "inboard joints' plunge range.")]
@@ -144,7 +148,8 @@ def _bearing(b: dict) -> list:
         out.append(line_chart(series, width_mm=170, height_mm=48,
                               xlabel="intermediate shaft length [mm]",
                               ylabel="angle difference [deg]",
-                              title="Bearing placement: angle balance over the length range"))
+                              title="Bearing placement: angle balance over the length range",
+                              xrange=(pts[0][0], pts[-1][0])))
     return out
 
 

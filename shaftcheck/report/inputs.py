@@ -11,13 +11,14 @@ from dataclasses import fields
 
 from ..design import HARD_POINTS
 from . import styles as st
-from .blocks import caption, para, section, sub, text
+from .blocks import caption, gap, para, section, sub, text
 from .tables import data_table
 
 SIDES = ("left", "right")
 
 
-def _v(x, digits: int = 4) -> str:
+def _v(x) -> str:
+    """An input value as the file would hold it (up to 6 significant figures)."""
     if isinstance(x, str):
         return st.esc(x)
     if isinstance(x, bool):
@@ -26,7 +27,9 @@ def _v(x, digits: int = 4) -> str:
         return "-"
     if isinstance(x, float) and math.isinf(x):
         return "infinite"
-    return st.num(x, digits)
+    if x != 0 and (abs(x) >= 1e6 or abs(x) < 1e-3):
+        return st.num(x, 3)
+    return f"{x:,.6g}"
 
 
 def _range(r, f=st.MM) -> str:
@@ -34,8 +37,12 @@ def _range(r, f=st.MM) -> str:
 
 
 def _kv(rows: list) -> list:
-    return [data_table(["Design file key", "Value"], [[st.esc(k), v] for k, v in rows],
-                       [80, 90])]
+    """Key-value pairs in two column pairs, read down the left pair, then the right."""
+    half = (len(rows) + 1) // 2
+    left, right = rows[:half], rows[half:] + [("", "")] * (2 * half - len(rows))
+    body = [[st.esc(a), b, st.esc(c), d] for (a, b), (c, d) in zip(left, right)]
+    return [data_table(["Design file key", "Value", "Design file key", "Value"], body,
+                        [58, 27, 58, 27])]
 
 
 def _general(design) -> list:
@@ -90,10 +97,10 @@ def _joints(design) -> list:
             st.num(j.efficiency_loss_per_deg * st.PCT, 3)
         plunge = f"{j.plunge_min * st.MM:g} ... {j.plunge_max * st.MM:g}" if j.plunges else \
             "does not plunge"
-        rows.append([st.esc(j.id), st.esc(j.kind), f"{j.max_angle * st.DEG:g}", plunge, k, loss])
-    return [data_table(["Joint id", "Kind", "max_angle_deg", "plunge_min/max_mm",
-                        "torsional_stiffness_nm_per_deg", "efficiency_loss_pct_per_deg"], rows,
-                       [28, 24, 22, 30, 34, 32], right=(2, 4, 5))]
+        rows.append([st.esc(j.id), st.esc(j.kind), _v(j.max_angle * st.DEG), plunge, k, loss])
+    return [data_table(["Joint id", "Kind", "Max angle [deg]", "Plunge min ... max [mm]",
+                        "Torsional stiffness [N*m/deg]", "Efficiency loss [%/deg]"], rows,
+                       [28, 24, 22, 32, 34, 30], right=(2, 4, 5))]
 
 
 def _suspension(design) -> list:
@@ -112,7 +119,7 @@ def _suspension(design) -> list:
                      st.point(None if rp is None else [c * scale for c in rp], dec)])
     rows.append(["outboard_joint_offset_mm", _v(s.left.outboard_joint_offset * st.MM),
                  _v(s.right.outboard_joint_offset * st.MM)])
-    out.append(para(""))
+    out.append(gap(2))
     out.append(data_table(["Corner hard point (x, y, z)", "Left corner", "Right corner"], rows,
                           [56, 57, 57]))
     note = "The right corner is the mirror image of the left." if s.mirror else ""
@@ -123,28 +130,34 @@ def _suspension(design) -> list:
     return out
 
 
+def _vec(v, f: float = 1.0) -> str:
+    return "-" if v is None else "[" + ", ".join(f"{c * f:.6g}" for c in v) + "]"
+
+
+def _side_values(sd) -> dict:
+    out = {"inboard_joint": st.esc(sd.inboard_joint.id),
+           "outboard_joint": st.esc(sd.outboard_joint.id),
+           "inboard_centre_mm": _vec(sd.inboard_centre, st.MM) if sd.inboard_centre
+           else "from the intermediate shaft",
+           "output_axis": _vec(sd.output_axis), "material": st.esc(sd.material.id)}
+    it = sd.intermediate
+    if it is not None:
+        out.update({
+            "intermediate.output_point_mm": _vec(it.output_point, st.MM),
+            "intermediate.bearing_offset_mm": _v(it.bearing_offset * st.MM),
+            "intermediate.length_mm": "placed by shaftcheck" if it.length is None
+            else _v(it.length * st.MM),
+            "intermediate.length_range_mm": _range(it.length_range),
+            "intermediate.bearing_dynamic_rating_n": _v(it.bearing_dynamic_rating),
+            "intermediate.material": st.esc(it.material.id)})
+    return out
+
+
 def _sides(design) -> list:
-    rows = []
-    for name in SIDES:
-        sd = design.side(name)
-        rows += [[f"{name}.inboard_joint", st.esc(sd.inboard_joint.id)],
-                 [f"{name}.outboard_joint", st.esc(sd.outboard_joint.id)],
-                 [f"{name}.output_axis", st.point(sd.output_axis, 4)],
-                 [f"{name}.material", st.esc(sd.material.id)]]
-        if sd.inboard_centre is not None:
-            rows.append([f"{name}.inboard_centre_mm",
-                         st.point([c * st.MM for c in sd.inboard_centre])])
-        it = sd.intermediate
-        if it is not None:
-            k = f"{name}.intermediate"
-            rows += [[f"{k}.output_point_mm", st.point([c * st.MM for c in it.output_point])],
-                     [f"{k}.bearing_offset_mm", _v(it.bearing_offset * st.MM)],
-                     [f"{k}.length_mm", "placed by shaftcheck" if it.length is None
-                      else _v(it.length * st.MM)],
-                     [f"{k}.length_range_mm", _range(it.length_range)],
-                     [f"{k}.bearing_dynamic_rating_n", _v(it.bearing_dynamic_rating)],
-                     [f"{k}.material", st.esc(it.material.id)]]
-    return [data_table(["Design file key", "Value"], rows, [80, 90])]
+    vals = {name: _side_values(design.side(name)) for name in SIDES}
+    keys = list(dict.fromkeys(list(vals["left"]) + list(vals["right"])))
+    rows = [[st.esc(k), vals["left"].get(k, "-"), vals["right"].get(k, "-")] for k in keys]
+    return [data_table(["Key in [left] / [right]", "Left", "Right"], rows, [62, 54, 54])]
 
 
 def _seg_row(where: str, i: int, s) -> list:
@@ -174,7 +187,7 @@ def _segments(design) -> list:
 def _spectrum(design) -> list:
     if not design.spectrum:
         return [para("No duty-cycle spectrum given.")]
-    rows = [[str(i), _v(b.torque_min), _v(b.torque_max), _v(b.cycles, 3)]
+    rows = [[str(i), _v(b.torque_min), _v(b.torque_max), _v(b.cycles)]
             for i, b in enumerate(design.spectrum)]
     return [data_table(["Bin", "torque_min_nm", "torque_max_nm", "cycles"], rows,
                        [14, 36, 36, 36], right=(1, 2, 3))]

@@ -5,7 +5,7 @@ from __future__ import annotations
 import numpy as np
 
 from . import styles as st
-from .blocks import bullets, caption, gap, para, section, sub, text
+from .blocks import caption, gap, para, section, sub, text
 from .charts import DASHED, Series, line_chart
 from .tables import data_table
 
@@ -191,11 +191,8 @@ def strength(result, rd: dict) -> list:
             out += _miner_table(members, design)
     else:
         out.append(para("No duty-cycle spectrum in the design: no Miner damage."))
-    notes = []
-    for label, _, _, s in shafts(rd):
-        notes += [f"{label}: {n}" for n in s.get("notes", [])]
-    if notes:
-        out += sub("Notes from the strength methods")
-        out += bullets(notes)
-    out.append(gap(1))
+    if any(s.get("notes") for *_, s in shafts(rd)):
+        out.append(gap(1))
+        out.append(text("The strength methods raised notes on their validity for this design: "
+                        "see section 7, 'Validity ranges and flags'.", st.SMALL))
     return out

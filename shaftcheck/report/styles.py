@@ -65,9 +65,9 @@ CELL_HEAD = _style("cell_head", fontName="Helvetica-Bold", fontSize=7.6, leading
 CELL_HEAD_R = _style("cell_head_r", fontName="Helvetica-Bold", fontSize=7.6, leading=9.2,
                      alignment=TA_RIGHT)
 H1 = _style("h1", fontName="Helvetica-Bold", fontSize=14, leading=17, textColor=TEAL,
-            spaceBefore=4, spaceAfter=6)
+            spaceBefore=4, spaceAfter=6, keepWithNext=1)
 H2 = _style("h2", fontName="Helvetica-Bold", fontSize=10.5, leading=13, textColor=INK,
-            spaceBefore=8, spaceAfter=4)
+            spaceBefore=8, spaceAfter=4, keepWithNext=1)
 KICKER = _style("kicker", fontName="Helvetica-Bold", fontSize=8.5, leading=11, textColor=TEAL)
 TITLE = _style("title", fontName="Helvetica-Bold", fontSize=17, leading=21, spaceAfter=4)
 VERDICT = _style("verdict", fontName="Helvetica-Bold", fontSize=12, leading=15)

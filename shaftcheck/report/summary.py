@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from pathlib import PurePath
+
 from reportlab.platypus import Paragraph
 
 from ..cautions import CAUTION_LINE
@@ -13,7 +15,7 @@ from .tables import boxed, data_table, key_value_table
 def title_block(rd: dict) -> list:
     d = rd["design"]
     rows = [("Revision", st.esc(d["revision"])), ("Date", st.esc(d["date"])),
-            ("Author", st.esc(d["author"])), ("Design file", st.esc(d["path"])),
+            ("Author", st.esc(d["author"])), ("Design file", st.esc(PurePath(d["path"]).name)),
             ("Design file SHA-256", f'<font face="Courier" size="7.2">{st.esc(d["sha256"])}'
                                     "</font>"),
             ("shaftcheck version", st.esc(rd["shaftcheck_version"]))]
@@ -68,7 +70,8 @@ def _margin(c: dict) -> str:
     m = c["margin"]
     if m is None:
         return "-"
-    return f"{st.PCT * m:+.0f} %"
+    pct = st.PCT * m
+    return "&gt; +999 %" if pct > 999 else f"{pct:+.0f} %"
 
 
 def checks_table(rd: dict) -> list:

@@ -7,13 +7,22 @@ ready flowables. Presentation only.
 from __future__ import annotations
 
 from reportlab.lib.units import mm
+from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.platypus import Paragraph, Table, TableStyle
 
 from . import styles as st
 
 
-def _cell(value, right: bool, head: bool = False):
+PAD = 3.0  # cell padding left and right [pt]
+
+
+def _cell(value, right: bool, head: bool = False, width: float | None = None):
+    """A Paragraph for markup or text that needs wrapping; a plain string (much faster to lay
+    out) for short text without markup that fits its column."""
     if not isinstance(value, str):
+        return value
+    if (not head and width is not None and "<" not in value and "&" not in value
+            and stringWidth(value, "Helvetica", st.CELL.fontSize) <= width - 2 * PAD - 0.5):
         return value
     if head:
         return Paragraph(value, st.CELL_HEAD_R if right else st.CELL_HEAD)
@@ -28,7 +37,8 @@ def data_table(header: list, rows: list, widths_mm: list, *, right: tuple = (),
     highlight_rows: body-row indexes drawn on the failure tint; total_rows: body-row indexes
     drawn bold-ruled (totals).
     """
-    body = [[_cell(v, i in right) for i, v in enumerate(r)] for r in rows]
+    body = [[_cell(v, i in right, width=widths_mm[i] * mm) for i, v in enumerate(r)]
+            for r in rows]
     head = [_cell(v, i in right, head=True) for i, v in enumerate(header)]
     t = Table([head] + body, colWidths=[w * mm for w in widths_mm], repeatRows=1,
               hAlign="LEFT")
@@ -39,9 +49,12 @@ def data_table(header: list, rows: list, widths_mm: list, *, right: tuple = (),
         ("VALIGN", (0, 0), (-1, -1), "TOP"),
         ("TOPPADDING", (0, 0), (-1, -1), 2.2),
         ("BOTTOMPADDING", (0, 0), (-1, -1), 2.2),
-        ("LEFTPADDING", (0, 0), (-1, -1), 3),
-        ("RIGHTPADDING", (0, 0), (-1, -1), 3),
+        ("LEFTPADDING", (0, 0), (-1, -1), PAD),
+        ("RIGHTPADDING", (0, 0), (-1, -1), PAD),
+        ("FONT", (0, 1), (-1, -1), "Helvetica", st.CELL.fontSize, st.CELL.leading),
+        ("TEXTCOLOR", (0, 1), (-1, -1), st.INK),
     ]
+    cmds += [("ALIGN", (i, 1), (i, -1), "RIGHT") for i in right]
     for i in range(len(body)):
         r = i + 1
         if i in highlight_rows:

@@ -41,7 +41,8 @@ def _pull_charts(ts: dict, limit: float) -> list:
                   Series("", [(x[0], -limit), (x[-1], -limit)], st.FAIL, dash=DOTTED,
                          width=0.9)]
         charts.append(line_chart(series, width_mm=84, height_mm=48, xlabel=xlabel,
-                                 ylabel="steering-wheel torque [N*m]", title=title))
+                                 ylabel="steering-wheel torque [N*m]", title=title,
+                                 xrange=(x[0], x[-1])))
     return charts
 
 
@@ -75,9 +76,11 @@ def _transient(tr: dict) -> list:
     pull = [Series("steering-wheel torque", list(zip(t, tr["steering_wheel_torque_nm"])),
                    st.PLUM)]
     c1 = line_chart(torques, width_mm=84, height_mm=48, xlabel="time [ms]",
-                    ylabel="halfshaft torque [N*m]", title="Wheel torques after the step")
+                    ylabel="halfshaft torque [N*m]", title="Wheel torques after the step",
+                    xrange=(t[0], t[-1]))
     c2 = line_chart(pull, width_mm=84, height_mm=48, xlabel="time [ms]",
-                    ylabel="steering-wheel torque [N*m]", title="Pull after the step")
+                    ylabel="steering-wheel torque [N*m]", title="Pull after the step",
+                    xrange=(t[0], t[-1]))
     s = tr.get("summary", {})
     out = sub("Transient after a throttle step")
     out.append(text(f"Input: {tr.get('input', '')}; differential: {tr.get('differential')}."))

@@ -1,0 +1,129 @@
+"""The PDF release report: page template, footer, assembly and the atomic write.
+
+``build_pdf(result)`` renders a :class:`~shaftcheck.result.Result` into PDF bytes; identical
+results give identical bytes (reportlab ``invariant=1``; no clock time is read, the date shown is
+the design's ``project.date``). ``write_report`` writes them atomically and refuses to replace an
+existing file unless ``overwrite`` (:func:`shaftcheck.files.write_bytes_atomic`). This package
+renders numbers computed by the library; it holds no engineering formula.
+"""
+
+from __future__ import annotations
+
+import io
+from pathlib import Path
+
+from reportlab.lib.pagesizes import A4
+from reportlab.pdfbase.pdfmetrics import stringWidth
+from reportlab.pdfgen.canvas import Canvas
+from reportlab.platypus import PageBreak, SimpleDocTemplate
+
+from ..files import OutputExistsError, write_bytes_atomic
+from . import styles as st
+from .blocks import Heading
+from .geometry import geometry
+from .inputs import inputs
+from .methods import cautions, methods
+from .stiffness import stiffness
+from .strength import strength
+from .summary import summary
+from .torque import torque_steer
+
+FOOT_SIZE = 7.0
+
+
+def _fit(text: str, width: float) -> str:
+    """Text shortened with '...' to fit ``width`` points in the footer font."""
+    if stringWidth(text, "Helvetica", FOOT_SIZE) <= width:
+        return text
+    while text and stringWidth(text + "...", "Helvetica", FOOT_SIZE) > width:
+        text = text[:-1]
+    return text.rstrip() + "..."
+
+
+def _footer_canvas(left_text: str, sha_short: str):
+    """A canvas class that draws the footer with 'page N of M' once the page count is known."""
+
+    class FooterCanvas(Canvas):
+        def __init__(self, *args, **kwargs):
+            super().__init__(*args, **kwargs)
+            self._pending = []
+
+        def showPage(self):
+            self._pending.append(dict(self.__dict__))
+            self._startPage()
+
+        def save(self):
+            total = len(self._pending)
+            for state in self._pending:
+                self.__dict__.update(state)
+                self._draw_footer(total)
+                super().showPage()
+            super().save()
+
+        def _draw_footer(self, total: int):
+            w, _ = A4
+            y = st.BOTTOM_MARGIN - 9
+            self.saveState()
+            self.setStrokeColor(st.RULE)
+            self.setLineWidth(0.5)
+            self.line(st.MARGIN, y + 9, w - st.MARGIN, y + 9)
+            self.setFont("Helvetica", FOOT_SIZE)
+            self.setFillColor(st.MUTED)
+            page = f"page {self._pageNumber} of {total}"
+            right = f"SHA-256 {sha_short}   {page}"
+            room = w - 2 * st.MARGIN - stringWidth(right, "Helvetica", FOOT_SIZE) - 12
+            self.drawString(st.MARGIN, y, _fit(left_text, room))
+            self.drawRightString(w - st.MARGIN, y, right)
+            self.restoreState()
+
+    return FooterCanvas
+
+
+class _ReportTemplate(SimpleDocTemplate):
+    def afterFlowable(self, flowable):
+        if isinstance(flowable, Heading):
+            key = f"h{id(flowable)}"
+            self.canv.bookmarkPage(key)
+            self.canv.addOutlineEntry(flowable.outline_text, key, flowable.outline_level,
+                                      closed=False)
+
+
+def story(result) -> list:
+    """All flowables of the report, summary first."""
+    rd = result.to_dict()
+    out = summary(rd)
+    for part in (stiffness, geometry, strength, torque_steer):
+        out += part(result, rd)
+    out.append(PageBreak())
+    for part in (inputs, methods, cautions):
+        out += part(result, rd)
+    return out
+
+
+def build_pdf(result) -> bytes:
+    """The release report of ``result`` as PDF bytes (A4 portrait, reproducible)."""
+    p = result.design.project
+    name, rev = st.clean(p.name), st.clean(p.revision)
+    buf = io.BytesIO()
+    doc = _ReportTemplate(
+        buf, pagesize=A4, leftMargin=st.MARGIN, rightMargin=st.MARGIN,
+        topMargin=st.TOP_MARGIN, bottomMargin=st.BOTTOM_MARGIN, invariant=1,
+        title=f"{name} - rev {rev} - halfshaft release report", author=st.clean(p.author),
+        subject="front halfshaft release report", creator="shaftcheck")
+    sha = result.design.sha256 or "-"
+    doc.build(story(result), canvasmaker=_footer_canvas(
+        f"{name} - rev {rev} - {st.clean(p.date)}", sha[:12]))
+    return buf.getvalue()
+
+
+def write_report(result, path, *, overwrite: bool = False) -> Path:
+    """Write the report of ``result`` to ``path`` [PDF] atomically; returns the path.
+
+    Raises :class:`~shaftcheck.files.OutputExistsError` when ``path`` exists and ``overwrite``
+    is false (the existing file is left untouched). A failure while building or writing leaves
+    neither the target nor a temporary file behind.
+    """
+    path = Path(path)
+    if path.exists() and not overwrite:
+        raise OutputExistsError(f"{path} exists; choose another name or pass --overwrite")
+    return write_bytes_atomic(path, build_pdf(result), overwrite=overwrite)
