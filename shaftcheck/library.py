@@ -8,6 +8,7 @@ from __future__ import annotations
 
 from functools import lru_cache
 from importlib import resources
+from pathlib import Path
 
 from .errors import DesignError
 from .materials import SURFACE_FINISHES, Material
@@ -16,8 +17,21 @@ from .tomlreader import Table, parse_toml
 LIBRARY_PACKAGE = "shaftcheck.datafiles"
 
 
+def _library_root():
+    """The folder of the data files: the installed package ``shaftcheck.datafiles``, or, when
+    shaftcheck runs from a source checkout (e.g. tests started in the repository), the
+    repository's ``materials/`` folder beside the package."""
+    try:
+        return resources.files(LIBRARY_PACKAGE)
+    except ModuleNotFoundError:
+        source = Path(__file__).resolve().parent.parent / "materials"
+        if not source.is_dir():
+            raise
+        return source
+
+
 def _library_files(suffix: str):
-    root = resources.files(LIBRARY_PACKAGE)
+    root = _library_root()
     return sorted((f for f in root.iterdir() if f.name.endswith(suffix)), key=lambda f: f.name)
 
 
@@ -69,7 +83,7 @@ def load_library_materials() -> dict:
 @lru_cache(maxsize=1)
 def load_tube_sizes() -> tuple:
     """Standard tube sizes (outer diameter [m], wall [m]) and the list's stated origin."""
-    f = resources.files(LIBRARY_PACKAGE) / "tube_sizes.toml"
+    f = _library_root() / "tube_sizes.toml"
     root = Table(parse_toml(f.read_text(encoding="utf-8"), "materials/tube_sizes.toml"), "")
     origin = root.string("origin")
     sizes = []

@@ -85,7 +85,7 @@ def test_footer_on_every_page_and_a4_portrait(results, pdfs, name):
     reader = PdfReader(io.BytesIO(pdfs[name]))
     pages = _pages(pdfs[name])
     sha12 = results[name].design.sha256[:12]
-    for i, (page, text) in enumerate(zip(reader.pages, pages), start=1):
+    for i, (page, text) in enumerate(zip(reader.pages, pages, strict=True), start=1):
         assert f"page {i} of {len(pages)}" in text
         assert f"SHA-256 {sha12}" in text
         assert f"rev {p.revision}" in text

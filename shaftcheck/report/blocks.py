@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from reportlab.lib.styles import ParagraphStyle
 from reportlab.platypus import CondPageBreak, Paragraph, Spacer
 
 from . import styles as st
@@ -22,7 +23,7 @@ def section(title: str) -> list:
 
 
 def sub(title: str) -> list:
-    return [CondPageBreak(80), Heading(title, 2)]
+    return [Heading(title, 2)]
 
 
 def para(markup: str, style=None) -> Paragraph:
@@ -32,6 +33,13 @@ def para(markup: str, style=None) -> Paragraph:
 def text(plain: str, style=None) -> Paragraph:
     """A paragraph of plain (unescaped) text."""
     return Paragraph(st.esc(plain), style or st.BODY)
+
+
+def intro(plain: str, style=None) -> Paragraph:
+    """A section's opening paragraph: kept on the page of what follows it."""
+    base = style or st.BODY
+    return Paragraph(st.esc(plain), ParagraphStyle(f"{base.name}_keep", parent=base,
+                                                   keepWithNext=1))
 
 
 def caption(plain: str) -> Paragraph:

@@ -15,7 +15,7 @@ from pathlib import Path
 from reportlab.lib.pagesizes import A4
 from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.pdfgen.canvas import Canvas
-from reportlab.platypus import PageBreak, SimpleDocTemplate
+from reportlab.platypus import SimpleDocTemplate
 
 from ..files import OutputExistsError, write_bytes_atomic
 from . import styles as st
@@ -92,10 +92,7 @@ def story(result) -> list:
     """All flowables of the report, summary first."""
     rd = result.to_dict()
     out = summary(rd)
-    for part in (stiffness, geometry, strength, torque_steer):
-        out += part(result, rd)
-    out.append(PageBreak())
-    for part in (inputs, methods, cautions):
+    for part in (stiffness, geometry, strength, torque_steer, inputs, methods, cautions):
         out += part(result, rd)
     return out
 

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from . import styles as st
-from .blocks import caption, gap, para, section, sub, text
+from .blocks import caption, gap, intro, para, section, sub
 from .charts import DASHED, DOTTED, Series, line_chart
 from .tables import data_table, key_value_table
 
@@ -36,9 +36,9 @@ def _angle_chart(sw: dict) -> list:
     for name in SIDES:
         c, w = st.SIDE_COLOURS[name], LINE_WIDTH[name]
         series.append(Series(f"{name} inboard", list(zip(t, _column(
-            sw[name]["inboard_angle_deg"], j0))), c, width=w))
+            sw[name]["inboard_angle_deg"], j0), strict=True)), c, width=w))
         series.append(Series(f"{name} outboard", list(zip(t, _column(
-            sw[name]["outboard_angle_deg"], j0))), c, dash=DASHED, width=w))
+            sw[name]["outboard_angle_deg"], j0), strict=True)), c, dash=DASHED, width=w))
     return [line_chart(series, width_mm=170, height_mm=50, xlabel="wheel travel [mm] "
                        "(positive = bump)", ylabel="joint angle [deg]",
                        title="Joint angles over wheel travel, rack centred",
@@ -57,7 +57,7 @@ def _plunge_chart(sw: dict, kin: dict) -> list:
     for name in SIDES:
         for j, dash, w, label in poses:
             series.append(Series(f"{name}, {label}", list(zip(t, _column(
-                sw[name]["plunge_mm"], j))), st.SIDE_COLOURS[name], dash=dash,
+                sw[name]["plunge_mm"], j), strict=True)), st.SIDE_COLOURS[name], dash=dash,
                 width=w * LINE_WIDTH[name]))
     limits = {tuple(kin[n]["plunge_limits_mm"]) for n in SIDES if kin.get(n)}
     for k, (lo, hi) in enumerate(sorted(limits)):
@@ -136,7 +136,7 @@ def _bearing(b: dict) -> list:
         out.append(caption(f"Loads: {loads['convention']}."))
     scan = b.get("scan")
     if scan and scan.get("length_mm"):
-        pts = list(zip(scan["length_mm"], scan["max_angle_difference_deg"]))
+        pts = list(zip(scan["length_mm"], scan["max_angle_difference_deg"], strict=True))
         top = max(v for _, v in pts)
         series = [Series("largest left-right angle difference", pts, st.PLUM),
                   Series("limit", [(pts[0][0], b["angle_difference_limit_deg"]),
@@ -158,7 +158,7 @@ def geometry(result, rd: dict) -> list:
     kin = rd.get("kinematics", {})
     sw = sweep(design)
     out = section("3  Joint geometry over wheel travel and steering")
-    out.append(text("Joint angles are the 3-D angles between the gearbox output axis, the shaft "
+    out.append(intro("Joint angles are the 3-D angles between the gearbox output axis, the shaft "
                     "axis and the wheel spindle axis; the suspension corner is solved at every "
                     "pose of the wheel travel x rack travel grid."))
     out += _angle_chart(sw)

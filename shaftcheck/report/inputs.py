@@ -11,7 +11,7 @@ from dataclasses import fields
 
 from ..design import HARD_POINTS
 from . import styles as st
-from .blocks import caption, gap, para, section, sub, text
+from .blocks import caption, gap, intro, para, section, sub
 from .tables import data_table
 
 SIDES = ("left", "right")
@@ -40,7 +40,7 @@ def _kv(rows: list) -> list:
     """Key-value pairs in two column pairs, read down the left pair, then the right."""
     half = (len(rows) + 1) // 2
     left, right = rows[:half], rows[half:] + [("", "")] * (2 * half - len(rows))
-    body = [[st.esc(a), b, st.esc(c), d] for (a, b), (c, d) in zip(left, right)]
+    body = [[st.esc(a), b, st.esc(c), d] for (a, b), (c, d) in zip(left, right, strict=True)]
     return [data_table(["Design file key", "Value", "Design file key", "Value"], body,
                         [58, 27, 58, 27])]
 
@@ -68,12 +68,12 @@ def _general(design) -> list:
     m = p.mounts
     if m is not None:
         rows += [("powertrain.mounts.roll_axis_point_mm",
-                  st.point([c * st.MM for c in m.roll_axis_point])),
-                 ("powertrain.mounts.roll_axis", st.point(m.roll_axis, 4)),
+                  _vec(m.roll_axis_point, st.MM)),
+                 ("powertrain.mounts.roll_axis", _vec(m.roll_axis)),
                  ("powertrain.mounts.roll_stiffness_nm_per_deg",
                   _v(m.roll_stiffness / st.DEG)),
                  ("powertrain.mounts.misalignment_deg",
-                  st.point([c * st.DEG for c in m.misalignment], 3))]
+                  _vec(m.misalignment, st.DEG))]
     rows += [("torque_steer.split_mu_low", _v(ts.split_mu_low)),
              ("torque_steer.split_mu_high", _v(ts.split_mu_high)),
              ("torque_steer.roll_travel_mm", _v(ts.roll_travel * st.MM)),
@@ -219,7 +219,7 @@ def materials_used(design) -> list:
 def inputs(result, rd: dict) -> list:
     design = result.design
     out = section("6  Inputs")
-    out.append(text("Every value of the design file as shaftcheck read it (defaults filled in), "
+    out.append(intro("Every value of the design file as shaftcheck read it (defaults filled in), "
                     "under the file's own key names and units."))
     out += sub("Vehicle, powertrain, torque-steer conditions, tolerances")
     out += _general(design)

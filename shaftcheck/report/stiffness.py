@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from ..errors import ShaftcheckError
 from . import styles as st
-from .blocks import caption, gap, para, section, sub, text
+from .blocks import caption, gap, intro, para, section, sub, text
 from .charts import hbar_chart
 from .tables import data_table
 
@@ -96,7 +96,7 @@ def _proposals(design, rd: dict) -> list:
 
 def stiffness(result, rd: dict) -> list:
     out = section("2  Stiffness balance")
-    out.append(text("Unequal torsional stiffness of the two halfshafts makes the wheel torques "
+    out.append(intro("Unequal torsional stiffness of the two halfshafts makes the wheel torques "
                     "differ while torque builds up. Each side is a chain of springs in series: "
                     "joints (where a stiffness is given), spline ends, plain and tubular "
                     "segments, and the intermediate shaft where there is one."))

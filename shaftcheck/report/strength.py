@@ -5,7 +5,7 @@ from __future__ import annotations
 import numpy as np
 
 from . import styles as st
-from .blocks import caption, gap, para, section, sub, text
+from .blocks import caption, gap, intro, para, section, sub, text
 from .charts import DASHED, Series, line_chart
 from .tables import data_table
 
@@ -130,10 +130,10 @@ def _sn_chart(members: list, design) -> list:
     grid = np.geomspace(endurance * 1.000001, top, 60)
     lives = line.life(grid * 1 / st.MPA)
     x_max = 1e9
-    curve = sorted(zip(lives.tolist(), grid.tolist())) + [(x_max, endurance)]
+    curve = sorted(zip(lives.tolist(), grid.tolist(), strict=True)) + [(x_max, endurance)]
     cycles = [b.cycles for b in design.spectrum]
-    applied = [(n, a) for n, a in zip(cycles, dmg["amplitude_mpa"]) if a is not None]
-    failing = [(n, a) for n, a in zip(dmg["life_cycles"], dmg["amplitude_mpa"])
+    applied = [(n, a) for n, a in zip(cycles, dmg["amplitude_mpa"], strict=True) if a is not None]
+    failing = [(n, a) for n, a in zip(dmg["life_cycles"], dmg["amplitude_mpa"], strict=True)
                if n is not None and a is not None]
     series = [Series("S-N line (torsion, Basquin)", curve, st.INK),
               Series("endurance limit S_se", [(1.0, endurance), (x_max, endurance)],
@@ -175,7 +175,7 @@ def _miner_table(members: list, design) -> list:
 def strength(result, rd: dict) -> list:
     design = result.design
     out = section("4  Strength")
-    out.append(text("Governing margins of every shaft. Static strength uses the peak shear "
+    out.append(intro("Governing margins of every shaft. Static strength uses the peak shear "
                     "with stress concentration against the shear yield strength; fatigue uses "
                     "the fatigue notch factor, the Marin factors and the chosen mean-stress "
                     f"criterion ({design.criteria.mean_stress_criterion}, reliability "

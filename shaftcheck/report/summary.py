@@ -8,7 +8,7 @@ from reportlab.platypus import Paragraph
 
 from ..cautions import CAUTION_LINE
 from . import styles as st
-from .blocks import bullets, gap, para, section, text
+from .blocks import bullets, gap, intro, para, section
 from .tables import boxed, data_table, key_value_table
 
 
@@ -33,8 +33,8 @@ def verdict_box(rd: dict) -> list:
         return [boxed(body, st.PASS_BG, st.PASS)]
     head = f"VERDICT: {len(failed)} of {len(checks)} checks NOT met - not releasable as designed"
     body = [Paragraph(st.coloured(st.esc(head), st.FAIL_HEX), st.VERDICT), gap(1)]
-    body += bullets([f"{c['title']} ({c['side']}): {_value(c)}, limit {_limit(c)}"
-                     for c in failed])
+    body += bullets([f"{st.esc(c['title'])} ({st.esc(c['side'])}): {_value(c)}, limit "
+                     f"{_limit(c)}" for c in failed], markup=True)
     return [boxed(body, st.FAIL_BG, st.FAIL)]
 
 
@@ -95,7 +95,7 @@ def summary(rd: dict) -> list:
     if rd.get("notices"):
         out += [gap(1)] + bullets([f"Notice: {n}" for n in rd["notices"]])
     out += section("1  Summary of checks")
-    out += [text("Every acceptance check of the design, in the order shaftcheck runs them. "
+    out += [intro("Every acceptance check of the design, in the order shaftcheck runs them. "
                  "Sections 2 to 5 show how each result comes about; section 7 names the "
                  "published method behind each.", st.SMALL)]
     out += checks_table(rd)

@@ -12,7 +12,6 @@ from reportlab.platypus import Paragraph, Table, TableStyle
 
 from . import styles as st
 
-
 PAD = 3.0  # cell padding left and right [pt]
 
 

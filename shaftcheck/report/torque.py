@@ -2,10 +2,16 @@
 
 from __future__ import annotations
 
+from reportlab.platypus import KeepTogether
+
 from . import styles as st
-from .blocks import caption, gap, para, section, sub, text
+from .blocks import caption, gap, intro, para, section, sub, text
 from .charts import DOTTED, Series, line_chart
 from .tables import data_table, side_by_side
+
+
+def _xy(x: list, y: list) -> list:
+    return list(zip(x, y, strict=True))
 
 
 def _budget(ts: dict) -> list:
@@ -34,8 +40,7 @@ def _pull_charts(ts: dict, limit: float) -> list:
         if not d:
             continue
         x = d[xkey]
-        series = [Series("steering-wheel torque", list(zip(x, d["steering_wheel_torque_nm"])),
-                         st.TEAL),
+        series = [Series("steering-wheel torque", _xy(x, d["steering_wheel_torque_nm"]), st.TEAL),
                   Series(f"+/- {limit:g} N*m limit", [(x[0], limit), (x[-1], limit)], st.FAIL,
                          dash=DOTTED, width=0.9),
                   Series("", [(x[0], -limit), (x[-1], -limit)], st.FAIL, dash=DOTTED,
@@ -70,11 +75,10 @@ def _transient(tr: dict) -> list:
     if not tr or not tr.get("time_s"):
         return []
     t = [v * st.MS for v in tr["time_s"]]
-    torques = [Series("left wheel torque", list(zip(t, tr["torque_left_nm"])), st.TEAL),
-               Series("right wheel torque", list(zip(t, tr["torque_right_nm"])), st.OCHRE,
+    torques = [Series("left wheel torque", _xy(t, tr["torque_left_nm"]), st.TEAL),
+               Series("right wheel torque", _xy(t, tr["torque_right_nm"]), st.OCHRE,
                       dash=(4, 2.5))]
-    pull = [Series("steering-wheel torque", list(zip(t, tr["steering_wheel_torque_nm"])),
-                   st.PLUM)]
+    pull = [Series("steering-wheel torque", _xy(t, tr["steering_wheel_torque_nm"]), st.PLUM)]
     c1 = line_chart(torques, width_mm=84, height_mm=48, xlabel="time [ms]",
                     ylabel="halfshaft torque [N*m]", title="Wheel torques after the step",
                     xrange=(t[0], t[-1]))
@@ -85,6 +89,7 @@ def _transient(tr: dict) -> list:
     out = sub("Transient after a throttle step")
     out.append(text(f"Input: {tr.get('input', '')}; differential: {tr.get('differential')}."))
     out.append(side_by_side(c1, c2))
+    out.append(gap(1))
     out.append(para(
         f"Largest left-right torque difference {st.num(s.get('max_abs_torque_difference_nm'), 3)}"
         f" N*m at {st.fixed(s.get('time_of_max_abs_torque_difference_ms'), 0)} ms; largest "
@@ -94,7 +99,7 @@ def _transient(tr: dict) -> list:
         f"{st.fixed(s.get('final_torque_right_nm'), 1)} N*m.", st.SMALL))
     if tr.get("statement"):
         out.append(text(tr["statement"], st.SMALL))
-    return out
+    return [KeepTogether(out)]
 
 
 def torque_steer(result, rd: dict) -> list:
@@ -102,7 +107,7 @@ def torque_steer(result, rd: dict) -> list:
     out = section("5  Torque steer")
     if not ts:
         return out + [para("No torque-steer results.")]
-    out.append(text("The moment each side's drive forces and joints put about its steering "
+    out.append(intro("The moment each side's drive forces and joints put about its steering "
                     "axis, and the net pull felt at the steering wheel (idealised quasi-static "
                     "model: no friction, no assistance, rigid links)."))
     out += sub("Moment budget by mechanism")
