@@ -321,8 +321,8 @@ def _transient(design, g, i0, j0, torque) -> dict:
     res = simulate(model, throttle(2.0 * torque, design.torque_steer.throttle_rise_time),
                    t_end=0.5, n_out=501, levers=levers, steering_gains=gains)
     summ = res.summary()
-    return {"differential": pt.differential, "input": f"carrier torque step to "
-            f"{2 * torque:.0f} N*m (design torque per side)"
+    return {"differential": pt.differential, "input": f"throttle step: {2 * torque:.0f} N*m at "
+            f"the differential carrier ({torque:.0f} N*m, the design torque, on each side)"
             + (f", ramp {design.torque_steer.throttle_rise_time * 1e3:.0f} ms"
                if design.torque_steer.throttle_rise_time > 0 else ""),
             "peak_torque_difference_nm": summ["max_abs_torque_difference_nm"],

@@ -8,7 +8,7 @@ from reportlab.platypus import Paragraph
 
 from ..cautions import CAUTION_LINE
 from . import styles as st
-from .blocks import bullets, gap, intro, para, section
+from .blocks import bullets, gap, para, section, text
 from .tables import boxed, data_table, key_value_table
 
 
@@ -95,7 +95,7 @@ def summary(rd: dict) -> list:
     if rd.get("notices"):
         out += [gap(1)] + bullets([f"Notice: {n}" for n in rd["notices"]])
     out += section("1  Summary of checks")
-    out += [intro("Every acceptance check of the design, in the order shaftcheck runs them. "
+    out += [text("Every acceptance check of the design, in the order shaftcheck runs them. "
                  "Sections 2 to 5 show how each result comes about; section 7 names the "
                  "published method behind each.", st.SMALL)]
     out += checks_table(rd)
