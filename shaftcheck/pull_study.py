@@ -203,6 +203,9 @@ def pull_study(design, travel_points: int = 41, torque_points: int = 11,
                      "net_nm": lv + rv, "steering_wheel_nm": float(_sw(g, lv, rv, (i0, j0))),
                      "roll_angle_deg": float(mounts.angle) * RAD2DEG})
 
+    totals = {k: sum(r[k] for r in rows) for k in ("left_nm", "right_nm", "net_nm",
+                                                  "steering_wheel_nm")}
+
     # heave: same travel both sides, rack centred
     _, net_h, tsw_h = _over(design, g, torque, (slice(None), j0), (slice(None), j0))
     # roll: left at +r, right at -r
@@ -243,6 +246,7 @@ def pull_study(design, travel_points: int = 41, torque_points: int = 11,
         "steering_wheel_torque_nm": tsw_base,
         "rack_force_n": float(rack_res.rack_force),
         "design_point": {"mechanisms": rows, "steering_wheel_torque_nm": tsw_base,
+                         "all_mechanisms": totals,
                          "rack_force_n": float(rack_res.rack_force)},
         "heave": {"travel_mm": travel * 1e3, "net_moment_nm": net_h,
                   "steering_wheel_torque_nm": tsw_h},

@@ -20,9 +20,14 @@ def _budget(ts: dict) -> list:
     for m in dp.get("mechanisms", []):
         rows.append([st.esc(m["name"]), st.fixed(m["left_nm"], 1), st.fixed(m["right_nm"], 1),
                      st.fixed(m["net_nm"], 1), st.fixed(m["steering_wheel_nm"], 2)])
-    rows.append(["<b>all mechanisms</b>", st.fixed(ts["left"]["steering_axis_moment_nm"], 1),
-                 st.fixed(ts["right"]["steering_axis_moment_nm"], 1), "",
-                 f"<b>{st.fixed(dp.get('steering_wheel_torque_nm'), 2)}</b>"])
+    left, right = ts["left"]["steering_axis_moment_nm"], ts["right"]["steering_axis_moment_nm"]
+    rows.append(["ideal CV joints, rigid mounts (drive force + joint angles)",
+                 st.fixed(left, 1), st.fixed(right, 1), st.fixed(left + right, 1),
+                 st.fixed(dp.get("steering_wheel_torque_nm"), 2)])
+    tot = dp.get("all_mechanisms", {})
+    rows.append(["<b>all mechanisms</b>", st.fixed(tot.get("left_nm"), 1),
+                 st.fixed(tot.get("right_nm"), 1), st.fixed(tot.get("net_nm"), 1),
+                 f"<b>{st.fixed(tot.get('steering_wheel_nm'), 2)}</b>"])
     return [data_table(["Mechanism", "Left axis [N*m]", "Right axis [N*m]", "Net [N*m]",
                         "Steering wheel [N*m]"], rows, [74, 24, 24, 22, 26],
                        right=(1, 2, 3, 4), total_rows=(len(rows) - 1,)),
