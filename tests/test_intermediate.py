@@ -8,11 +8,12 @@ calculations of ISO 281 formulas ([M], from memory, as in reference notes §4.2)
 from __future__ import annotations
 
 import math
+from pathlib import Path
 
 import numpy as np
 import pytest
 
-from shaftcheck.corner import StrutHardPoints
+from shaftcheck.design import load_design
 from shaftcheck.intermediate import (
     angle_difference,
     bearing_reactions,
@@ -23,19 +24,12 @@ from shaftcheck.intermediate import (
     rating_life_time,
 )
 from shaftcheck.kinematics import joint_geometry, solve_strut
+from shaftcheck.study import corner_hard_points
 
 MM = 1e-3
-#: shared/examples/strut_corner_demo.toml [suspension.left], mm
-DEMO = StrutHardPoints(
-    lower_arm_front=np.array([80.0, 350.0, 185.0]) * MM,
-    lower_arm_rear=np.array([-280.0, 365.0, 190.0]) * MM,
-    lower_ball_joint=np.array([8.0, 700.0, 150.0]) * MM,
-    strut_top=np.array([-55.0, 600.0, 820.0]) * MM,
-    tie_rod_inner=np.array([-125.0, 380.0, 230.0]) * MM,
-    tie_rod_outer=np.array([-120.0, 688.0, 215.0]) * MM,
-    wheel_centre=np.array([0.0, 752.0, 300.0]) * MM,
-    spindle_axis=np.array([0.0, 0.99985, -0.0175]) / np.linalg.norm([0.0, 0.99985, -0.0175]),
-    outboard_joint_offset=18.0 * MM)
+#: the demo corner (shared/examples/strut_corner_demo.toml), as the example design holds it
+EXAMPLE = Path(__file__).resolve().parents[1] / "example_designs" / "wren_tubular.toml"
+DEMO = corner_hard_points(load_design(EXAMPLE), "left")
 TRAVEL = np.linspace(-0.08, 0.09, 35)
 I_L = np.array([0.012, 0.245, 0.280])
 Y = np.array([0.0, 1.0, 0.0])

@@ -17,25 +17,18 @@ import numpy as np
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[2]))
 
+from shaftcheck.design import load_design  # noqa: E402
 from shaftcheck.kinematics import (  # noqa: E402
-    StrutHardPoints,
     halfshaft_sweep,
     solve_strut,
     solve_strut_pose_scalar,
 )
+from shaftcheck.study import corner_hard_points  # noqa: E402
 
 MM = 1e-3
-SPINDLE = np.array([0.0, 0.99985, -0.0175])
-LEFT = StrutHardPoints(
-    lower_arm_front=np.array([80.0, 350.0, 185.0]) * MM,
-    lower_arm_rear=np.array([-280.0, 365.0, 190.0]) * MM,
-    lower_ball_joint=np.array([8.0, 700.0, 150.0]) * MM,
-    strut_top=np.array([-55.0, 600.0, 820.0]) * MM,
-    tie_rod_inner=np.array([-125.0, 380.0, 230.0]) * MM,
-    tie_rod_outer=np.array([-120.0, 688.0, 215.0]) * MM,
-    wheel_centre=np.array([0.0, 752.0, 300.0]) * MM,
-    spindle_axis=SPINDLE / np.linalg.norm(SPINDLE),
-    outboard_joint_offset=18.0 * MM)
+#: the demo corner (shared/examples/strut_corner_demo.toml), as the example design holds it
+EXAMPLE = Path(__file__).resolve().parents[2] / "example_designs" / "wren_tubular.toml"
+LEFT = corner_hard_points(load_design(EXAMPLE), "left")
 INBOARD = np.array([12.0, 245.0, 280.0]) * MM
 TRAVEL = np.linspace(-0.080, 0.090, 41)
 RACK = np.linspace(-0.075, 0.075, 29)
