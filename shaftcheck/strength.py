@@ -274,6 +274,14 @@ def _fatigue(sections, spectrum, material, criterion):
     return best, worst_d
 
 
+def infinite_life_fatigue(sections: Sequence[Section], spectrum, material,
+                          criterion: str = "goodman") -> FatigueResult:
+    """Governing infinite-life fatigue safety over ``sections`` (from :func:`shaft_sections` or
+    ``ShaftStrength.sections``) for a subset of spectrum bins, without re-running the rest of
+    the assessment. spectrum: (torque_min, torque_max, cycles) bins [N*m, N*m, -]."""
+    return _fatigue(sections, spectrum, material, criterion)[0]
+
+
 def _buckling(segments, material, torque: float) -> tuple[BucklingResult, ...]:
     out = []
     E, nu = material.elastic_modulus, material.poisson_ratio

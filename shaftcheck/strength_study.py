@@ -42,7 +42,7 @@ def _first_ref(refs) -> str:
 def strength_study(design) -> tuple[dict, list]:
     """(strength section dict, checks) for a design."""
     from .balance import side_stiffness
-    from .strength import assess_shaft
+    from .strength import assess_shaft, infinite_life_fatigue
     from .whirl import shock_peak_torque_ratio, torsional_natural_frequency
 
     crit = design.criteria
@@ -71,7 +71,7 @@ def strength_study(design) -> tuple[dict, list]:
                                 crit.abuse_safety_min, "-", "min", _where(shaft, worst.location),
                                 "shigley_ch5_de"))
         if res.fatigue is not None:
-            hc = assess_shaft(segs, material, cases, high, speed, **opts).fatigue
+            hc = infinite_life_fatigue(res.sections, high, material, crit.mean_stress_criterion)
             checks.append(Check(f"fatigue_infinite_{tag}", f"Fatigue safety, infinite life at "
                                 f"{'high-cycle bins' if high is not spectrum else 'worst bin'}"
                                 f"{title}", name, float(hc.safety), crit.fatigue_safety_min, "-",
