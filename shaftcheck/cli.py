@@ -30,6 +30,20 @@ DesignArg = typer.Argument(..., help="Design file (TOML, format 1).", show_defau
 JsonOpt = typer.Option(False, "--json", help="Print the results as JSON on stdout.")
 
 
+def _show_version(value: bool):
+    if value:
+        from . import __version__
+
+        typer.echo(f"shaftcheck {__version__}")
+        raise typer.Exit()
+
+
+@app.callback()
+def _root(version: bool = typer.Option(False, "--version", callback=_show_version, is_eager=True,
+                                       help="Print the version and exit.")):
+    pass
+
+
 def _fail(message: str, code: int = 2):
     typer.echo(f"shaftcheck: error: {message}", err=True)
     raise typer.Exit(code)
@@ -295,4 +309,4 @@ def new(file: Path = typer.Argument(..., help="Design file to create."),
 
 
 def main():
-    app()
+    app(prog_name="shaftcheck")

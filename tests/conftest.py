@@ -12,6 +12,7 @@ import json
 import math
 import re
 import subprocess
+import sys
 import tomllib
 from collections.abc import Callable
 from pathlib import Path
@@ -22,8 +23,10 @@ ROOT = Path(__file__).resolve().parents[1]
 EXAMPLES = ROOT / "example_designs"
 TUBULAR = EXAMPLES / "wren_tubular.toml"
 INTERMEDIATE = EXAMPLES / "wren_intermediate.toml"
-SHAFTCHECK = Path("/work/venv/bin/shaftcheck")
-PYTHON = Path("/work/venv/bin/python")
+#: the tool as the interpreter running the tests sees it (never a fixed path: a fresh clone has no
+#: other copy, and another machine's copy would hide the tree under test)
+PYTHON = Path(sys.executable)
+SHAFTCHECK_CMD = (sys.executable, "-m", "shaftcheck")
 
 _BARE_KEY = re.compile(r"^[A-Za-z0-9_-]+$")
 
@@ -105,8 +108,8 @@ def write_text_edit(tmp_path: Path, example: Path, old: str, new: str,
 
 
 def run_cli(*args: str, cwd: Path | None = None, timeout: float = 120.0):
-    """Run the installed ``shaftcheck`` command; returns the CompletedProcess (text mode)."""
-    return subprocess.run([str(SHAFTCHECK), *map(str, args)], capture_output=True, text=True,
+    """Run ``python -m shaftcheck`` with the test interpreter; returns the CompletedProcess."""
+    return subprocess.run([*SHAFTCHECK_CMD, *map(str, args)], capture_output=True, text=True,
                           cwd=cwd or ROOT, timeout=timeout)
 
 

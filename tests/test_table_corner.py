@@ -71,6 +71,7 @@ def test_table_corner_matches_strut_corner(tmp_path):
 
 def test_table_design_runs_from_the_cli(tmp_path):
     path = _table_design(tmp_path)
+    # the console script that pip installed beside the interpreter running the tests
     exe = Path(sys.executable).parent / "shaftcheck"
     out = subprocess.run([str(exe), "sweep", str(path), "--json"], capture_output=True,
                          text=True)
@@ -82,6 +83,7 @@ def test_table_design_runs_from_the_cli(tmp_path):
 def test_table_missing_file_is_a_clear_error(tmp_path):
     path = _table_design(tmp_path)
     (tmp_path / "left_corner.csv").unlink()
+    # the console script that pip installed beside the interpreter running the tests
     exe = Path(sys.executable).parent / "shaftcheck"
     out = subprocess.run([str(exe), "check", str(path)], capture_output=True, text=True)
     assert out.returncode == 2
