@@ -16,12 +16,12 @@ __all__ = ["load_design", "evaluate", "write_report", "__version__"]
 
 # Imported eagerly (it is light: no numpy at import) so that the name ``shaftcheck.evaluate`` is
 # the function, not the submodule of the same name.
-from .evaluate import evaluate  # noqa: E402
+from shaftcheck.studies.evaluate import evaluate  # noqa: E402
 
 
 def load_design(path):
     """Read and validate a design file (TOML, format 1) -> Design."""
-    from .design import load_design as _load
+    from shaftcheck.io.design_file import load_design as _load
 
     return _load(path)
 
@@ -29,6 +29,6 @@ def load_design(path):
 
 def write_report(result, path, *, overwrite: bool = False):
     """Write the PDF release report of a Result atomically to ``path``."""
-    from .report.document import write_report as _write
+    from shaftcheck.report.document import write_report as _write
 
     return _write(result, path, overwrite=overwrite)

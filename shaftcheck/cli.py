@@ -14,7 +14,7 @@ from pathlib import Path
 
 import typer
 
-from .errors import ShaftcheckError
+from shaftcheck.errors import ShaftcheckError
 
 app = typer.Typer(
     help="Release checks for the front halfshafts of transverse-engine cars: stiffness balance, "
@@ -32,7 +32,7 @@ JsonOpt = typer.Option(False, "--json", help="Print the results as JSON on stdou
 
 def _show_version(value: bool):
     if value:
-        from . import __version__
+        from shaftcheck import __version__
 
         typer.echo(f"shaftcheck {__version__}")
         raise typer.Exit()
@@ -76,7 +76,7 @@ def _print_json(data) -> None:
 
 
 def _load(path: Path):
-    from .design import load_design
+    from shaftcheck.io.design_file import load_design
 
     return load_design(path)
 
@@ -90,13 +90,13 @@ def check(design: Path = DesignArg, json_: bool = JsonOpt,
 
     Example: shaftcheck check example_designs/wren_tubular.toml
     """
-    from .evaluate import evaluate
+    from shaftcheck.studies.evaluate import evaluate
 
     result = evaluate(_load(design), travel_points=travel_points, rack_points=rack_points)
     if json_:
         _print_json(result.to_dict())
     else:
-        from .printing import print_check
+        from shaftcheck.output.console import print_check
 
         print_check(result)
     raise typer.Exit(0 if result.verdict == "pass" else 1)
@@ -120,7 +120,7 @@ def size(design: Path = DesignArg,
     """
     if side not in ("left", "right"):
         _fail(f"--side = {side!r}: must be left or right")
-    from .sizing import propose_sizes
+    from shaftcheck.studies.sizing import propose_sizes
 
     d = _load(design)
     proposals = propose_sizes(d, side, segment=segment,
@@ -130,7 +130,7 @@ def size(design: Path = DesignArg,
     if json_:
         _print_json(proposals.to_dict(top))
     else:
-        from .printing import print_sizes
+        from shaftcheck.output.console import print_sizes
 
         print_sizes(proposals, top)
 
@@ -143,8 +143,8 @@ def bearing(design: Path = DesignArg, json_: bool = JsonOpt,
 
     Example: shaftcheck bearing example_designs/wren_intermediate.toml
     """
-    from .bearing_study import bearing_study
-    from .study import grid
+    from shaftcheck.studies.bearing import bearing_study
+    from shaftcheck.studies.geometry import grid
 
     d = _load(design)
     sides = [s for s in ("left", "right") if d.side(s).intermediate is not None]
@@ -153,11 +153,11 @@ def bearing(design: Path = DesignArg, json_: bool = JsonOpt,
     res = bearing_study(d, sides[0], grid(*d.suspension.travel, travel_points))
     res.pop("_checks", None)
     if json_:
-        from .result import jsonable
+        from shaftcheck.studies.result import jsonable
 
         _print_json(jsonable(res))
     else:
-        from .printing import print_bearing
+        from shaftcheck.output.console import print_bearing
 
         print_bearing(res)
 
@@ -174,20 +174,20 @@ def sweep(design: Path = DesignArg,
 
     Example: shaftcheck sweep example_designs/wren_tubular.toml --travel-step 20
     """
-    from .sweep_table import sweep_data
+    from shaftcheck.studies.sweep import sweep_data
 
     if travel_step <= 0 or rack_step <= 0:
         _fail("--travel-step and --rack-step must be greater than zero")
     data = sweep_data(_load(design), travel_step * 1e-3, rack_step * 1e-3)
     if csv is not None:
-        from .files import write_text_atomic
-        from .sweep_table import sweep_csv
+        from shaftcheck.output.files import write_text_atomic
+        from shaftcheck.studies.sweep import sweep_csv
 
         write_text_atomic(csv, sweep_csv(data), overwrite=overwrite)
     if json_:
         _print_json(data)
     else:
-        from .printing import print_sweep
+        from shaftcheck.output.console import print_sweep
 
         print_sweep(data)
 
@@ -202,20 +202,20 @@ def pull(design: Path = DesignArg, json_: bool = JsonOpt,
 
     Example: shaftcheck pull example_designs/wren_tubular.toml
     """
-    from .pull_study import pull_map_csv, pull_study
+    from shaftcheck.studies.torque_steer import pull_map_csv, pull_study
 
     d = _load(design)
     res = pull_study(d)
     if map_ is not None:
-        from .files import write_text_atomic
+        from shaftcheck.output.files import write_text_atomic
 
         write_text_atomic(map_, pull_map_csv(res), overwrite=overwrite)
     if json_:
-        from .result import jsonable
+        from shaftcheck.studies.result import jsonable
 
         _print_json(jsonable(res))
     else:
-        from .printing import print_pull
+        from shaftcheck.output.console import print_pull
 
         print_pull(res)
 
@@ -230,15 +230,22 @@ def tolerance(design: Path = DesignArg,
 
     Example: shaftcheck tolerance example_designs/wren_tubular.toml -n 200000
     """
-    from .tolerance_study import tolerance_study
+    from shaftcheck.studies.tolerance import tolerance_study
 
     if n < 100:
         _fail(f"-n = {n}: use at least 100 samples")
-    res = tolerance_study(_load(design), n, seed, progress=not json_)
+    loaded = _load(design)
+    if json_:
+        res = tolerance_study(loaded, n, seed)
+    else:
+        from shaftcheck.output.console import progress_bar
+
+        with progress_bar("Monte Carlo", n) as update:
+            res = tolerance_study(loaded, n, seed, progress=update)
     if json_:
         _print_json(res)
     else:
-        from .printing import print_tolerance
+        from shaftcheck.output.console import print_tolerance
 
         print_tolerance(res)
 
@@ -255,15 +262,15 @@ def report(design: Path = DesignArg,
     """
     if output.exists() and not overwrite:
         _fail(f"{output} exists; choose another name or pass --overwrite")
-    from .evaluate import evaluate
-    from .report.document import write_report
+    from shaftcheck.report.document import write_report
+    from shaftcheck.studies.evaluate import evaluate
 
     result = evaluate(_load(design))
     write_report(result, output, overwrite=overwrite)
     verdict = "all checks met" if result.verdict == "pass" else \
         f"{len(result.failed)} check(s) NOT met"
     typer.echo(f"wrote {output}: {verdict}")
-    from .cautions import CAUTION_LINE
+    from shaftcheck.output.cautions import CAUTION_LINE
 
     typer.echo(CAUTION_LINE)
     raise typer.Exit(0 if result.verdict == "pass" else 1)
@@ -276,7 +283,7 @@ def materials(json_: bool = JsonOpt):
 
     Example: shaftcheck materials
     """
-    from .library import load_library_materials
+    from shaftcheck.io.data_files import load_library_materials
 
     mats = load_library_materials()
     if json_:
@@ -288,7 +295,7 @@ def materials(json_: bool = JsonOpt):
                          "surface_finish": m.surface_finish, "basis": m.basis,
                          "source": m.source} for k, m in mats.items()})
     else:
-        from .printing import print_materials
+        from shaftcheck.output.console import print_materials
 
         print_materials(mats)
 
@@ -301,8 +308,8 @@ def new(file: Path = typer.Argument(..., help="Design file to create."),
 
     Example: shaftcheck new my_car.toml
     """
-    from .files import write_text_atomic
-    from .starter import starter_text
+    from shaftcheck.io.starter import starter_text
+    from shaftcheck.output.files import write_text_atomic
 
     write_text_atomic(file, starter_text(), overwrite=overwrite)
     typer.echo(f"wrote {file}; next: shaftcheck check {file}")

@@ -125,13 +125,13 @@ def intermediate_path() -> Path:
 
 @pytest.fixture
 def tubular_design():
-    from shaftcheck.design import load_design
+    from shaftcheck.io.design_file import load_design
 
     return load_design(TUBULAR)
 
 
 @pytest.fixture
 def intermediate_design():
-    from shaftcheck.design import load_design
+    from shaftcheck.io.design_file import load_design
 
     return load_design(INTERMEDIATE)

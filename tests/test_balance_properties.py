@@ -22,10 +22,10 @@ from conftest import TUBULAR, load_dict
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from shaftcheck.balance import mismatch_pct, side_stiffness
-from shaftcheck.design import design_from_dict
-from shaftcheck.evaluate import design_geometry
-from shaftcheck.sections import Segment, polar_moment, segment_stiffness, shaft_stiffness
+from shaftcheck.io.design_file import design_from_dict
+from shaftcheck.methods.sections import Segment, polar_moment, segment_stiffness, shaft_stiffness
+from shaftcheck.methods.side_stiffness import mismatch_pct, side_stiffness
+from shaftcheck.studies.evaluate import design_geometry
 
 G = 79.3e9  # [Pa]
 diam = st.floats(5e-3, 80e-3)
@@ -143,7 +143,7 @@ def test_mirrored_sides_balance_exactly(dx, y, dz, yaw, pitch, segs):
 
 
 def test_mirrored_example_evaluates_to_zero_differences():
-    from shaftcheck.evaluate import evaluate
+    from shaftcheck.studies.evaluate import evaluate
 
     left = BASE["left"]
     design = _mirrored_design(left["inboard_centre_mm"], left["output_axis"], left["segments"])

@@ -21,8 +21,8 @@ from conftest import (
     write_text_edit,
 )
 
-from shaftcheck.design import load_design
 from shaftcheck.errors import DesignError, ShaftcheckError
+from shaftcheck.io.design_file import load_design
 
 
 def _set(path: str, value):

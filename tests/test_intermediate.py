@@ -13,8 +13,9 @@ from pathlib import Path
 import numpy as np
 import pytest
 
-from shaftcheck.design import load_design
-from shaftcheck.intermediate import (
+from shaftcheck.io.design_file import load_design
+from shaftcheck.methods.halfshaft_geometry import joint_geometry, solve_strut
+from shaftcheck.methods.intermediate_shaft import (
     angle_difference,
     bearing_reactions,
     equivalent_load,
@@ -23,8 +24,7 @@ from shaftcheck.intermediate import (
     rating_life_distance,
     rating_life_time,
 )
-from shaftcheck.kinematics import joint_geometry, solve_strut
-from shaftcheck.study import corner_hard_points
+from shaftcheck.studies.geometry import corner_hard_points
 
 MM = 1e-3
 #: the demo corner (shared/examples/strut_corner_demo.toml), as the example design holds it
@@ -104,7 +104,7 @@ def test_z_layout_couple_only_hand_case():
 def test_reactions_satisfy_statics_solved_independently():
     """General layout: solve the two support reactions from the six equilibrium equations with
     numpy.linalg.lstsq (forces and moments about the bearing point) and compare; 1e-9 N."""
-    from shaftcheck.joints import halfshaft_loads
+    from shaftcheck.methods.joints import halfshaft_loads
 
     d = np.array([0.05, -1.0, 0.03]) / np.linalg.norm([0.05, -1.0, 0.03])
     length, offset = 0.28, 0.04

@@ -12,7 +12,7 @@ import math
 import numpy as np
 import pytest
 
-from shaftcheck.joints import (
+from shaftcheck.methods.joints import (
     CARDAN_WORKING_ANGLE_LIMIT,
     JOINT_KINDS,
     cardan_angle_flag,

@@ -17,15 +17,15 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from shaftcheck.errors import DesignError, UnreachablePoseError
-from shaftcheck.kinematics import (
+from shaftcheck.io.corner_table import parse_corner_table
+from shaftcheck.methods.halfshaft_geometry import (
     StrutHardPoints,
-    TableCorner,
     halfshaft_sweep,
     joint_geometry,
-    parse_corner_table,
     solve_strut,
     solve_strut_pose_scalar,
 )
+from shaftcheck.methods.table_corner import TableCorner
 
 MM = 1e-3
 #: shared/examples/strut_corner_demo.toml [suspension.left], mm

@@ -2,7 +2,7 @@
 
 Sources of the expected values: the report must show what ``Result.to_dict()`` (the ``--json``
 output) holds, so the expected strings come from the result itself, not from numbers typed here;
-the texts of the cautions come from ``shaftcheck.cautions``; the page size is ISO 216 A4
+the texts of the cautions come from ``shaftcheck.output.cautions``; the page size is ISO 216 A4
 (210 x 297 mm = 595.28 x 841.89 pt). Text comparisons normalise whitespace because the PDF
 wraps long lines (tolerance: none beyond that).
 """
@@ -17,13 +17,13 @@ import pytest
 from conftest import INTERMEDIATE, ROOT, TUBULAR, run_cli, write_modified
 from pypdf import PdfReader
 
-from shaftcheck.cautions import CAUTION_LINE
-from shaftcheck.design import load_design
-from shaftcheck.evaluate import evaluate
-from shaftcheck.files import OutputExistsError
-from shaftcheck.references import REFERENCES
+from shaftcheck.io.design_file import load_design
+from shaftcheck.model.references import REFERENCES
+from shaftcheck.output.cautions import CAUTION_LINE
+from shaftcheck.output.files import OutputExistsError
 from shaftcheck.report import document
 from shaftcheck.report.document import build_pdf, write_report
+from shaftcheck.studies.evaluate import evaluate
 
 A4_PT = (595.28, 841.89)  # ISO 216 A4 in PostScript points, to 0.01 pt
 

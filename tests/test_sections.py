@@ -10,7 +10,7 @@ Sources beside each check:
 * Spline: stiffness diameter d_minor + 0.25 (d_major - d_minor) (notes §2.2 [C], project rule),
   stress on the minor diameter (notes §2.2: "never use d_eq for stress" [P]).
 * Whole side of an example design: springs in series (Shigley ch. 4 [M]) computed here by hand
-  from the numbers in the file, against shaftcheck.balance.
+  from the numbers in the file, against shaftcheck.methods.side_stiffness.
 """
 
 from __future__ import annotations
@@ -21,8 +21,7 @@ import pytest
 import sympy as sp
 from conftest import TUBULAR, load_dict
 
-from shaftcheck.balance import mismatch_pct, side_stiffness
-from shaftcheck.sections import (
+from shaftcheck.methods.sections import (
     Segment,
     compliance_shares,
     nominal_shear,
@@ -34,6 +33,7 @@ from shaftcheck.sections import (
     spline_stiffness_diameter,
     step_concentrations,
 )
+from shaftcheck.methods.side_stiffness import mismatch_pct, side_stiffness
 
 G = 79.3e9  # [Pa]
 

@@ -16,17 +16,17 @@ import math
 import pytest
 from conftest import TUBULAR, load_dict, run_cli, write_modified
 
-from shaftcheck.design import load_design
 from shaftcheck.errors import ShaftcheckError
-from shaftcheck.library import load_tube_sizes
-from shaftcheck.loads import (
+from shaftcheck.io.data_files import load_tube_sizes
+from shaftcheck.io.design_file import load_design
+from shaftcheck.methods.loads import (
     differential_split,
     engine_limited_torque,
     load_cases,
     wheel_slip_torque,
 )
-from shaftcheck.sections import Segment, polar_moment
-from shaftcheck.sizing import bore_for, outer_for, propose_sizes, solid_for
+from shaftcheck.methods.sections import Segment, polar_moment
+from shaftcheck.studies.sizing import bore_for, outer_for, propose_sizes, solid_for
 
 DEG = math.pi / 180
 

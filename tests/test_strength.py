@@ -16,9 +16,9 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from shaftcheck.materials import Material
-from shaftcheck.sections import Segment, nominal_shear
-from shaftcheck.strength import assess_shaft, shaft_sections
+from shaftcheck.methods.sections import Segment, nominal_shear
+from shaftcheck.methods.shaft_strength import assess_shaft, shaft_sections
+from shaftcheck.model.materials import Material
 
 STEEL = Material("demo", "demo steel, invented", 206e9, 79.3e9, 0.29, 7850.0, 900e6, 700e6,
                  "machined", "test values, invented")
@@ -142,7 +142,7 @@ def test_extra_length_lowers_the_whirl_speed():
 
 
 def test_computation_modules_do_not_import_scipy_at_import():
-    code = ("import sys; import shaftcheck.strength; "
+    code = ("import sys; import shaftcheck.methods.shaft_strength; "
             "print(sorted(m for m in ('scipy', 'sympy', 'typer', 'reportlab') "
             "if m in sys.modules))")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)

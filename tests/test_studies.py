@@ -14,8 +14,8 @@ from pathlib import Path
 import numpy as np
 import pytest
 
-from shaftcheck.design import load_design
-from shaftcheck.evaluate import evaluate
+from shaftcheck.io.design_file import load_design
+from shaftcheck.studies.evaluate import evaluate
 
 ROOT = Path(__file__).resolve().parents[1]
 TUBULAR = ROOT / "example_designs" / "wren_tubular.toml"
@@ -88,7 +88,7 @@ def test_json_keys_of_design_md(tubular):
 
 
 def test_every_check_reference_is_registered(tubular, intermediate):
-    from shaftcheck.references import REFERENCES
+    from shaftcheck.model.references import REFERENCES
 
     for r in (tubular, intermediate):
         for c in r.checks:

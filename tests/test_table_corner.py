@@ -16,10 +16,10 @@ from pathlib import Path
 import numpy as np
 import pytest
 
-from shaftcheck.design import load_design
-from shaftcheck.evaluate import evaluate
-from shaftcheck.kinematics import solve_strut
-from shaftcheck.study import corner_hard_points
+from shaftcheck.io.design_file import load_design
+from shaftcheck.methods.halfshaft_geometry import solve_strut
+from shaftcheck.studies.evaluate import evaluate
+from shaftcheck.studies.geometry import corner_hard_points
 
 ROOT = Path(__file__).resolve().parents[1]
 TUBULAR = ROOT / "example_designs" / "wren_tubular.toml"

@@ -1,5 +1,6 @@
 """Invariants and independent cross-checks of the steady torque-steer model, the differential
-split, joint efficiency and powertrain roll (shaftcheck.torquesteer, shaftcheck.drivesplit).
+split, joint efficiency and powertrain roll (methods.torque_steer,
+methods.drive_split).
 
 Check values name their source beside them; invariants (mirror symmetry, linearity, independence
 of the point chosen on the steering axis) need none. Independent references: scipy's Rotation
@@ -11,7 +12,7 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from shaftcheck.drivesplit import (
+from shaftcheck.methods.drive_split import (
     DEFAULT_EFFICIENCY,
     JointEfficiency,
     bias_split,
@@ -19,7 +20,7 @@ from shaftcheck.drivesplit import (
     joint_efficiency,
     wheel_torque,
 )
-from shaftcheck.torquesteer import (
+from shaftcheck.methods.torque_steer import (
     cv_joint_moment,
     forward_direction,
     misalign_powertrain,

@@ -1,4 +1,4 @@
-"""The two-side transient torsional model (shaftcheck.transient).
+"""The two-side transient torsional model (shaftcheck.methods.transient).
 
 Checks: static splits of the reference notes §5.4 "hand-checkable static case" [DER]
 (locked T_L/T_R = k_L/k_R = 1.4742, open = 1); the undamped natural frequency of one side against
@@ -13,8 +13,8 @@ import json
 import numpy as np
 import pytest
 
-from shaftcheck.torquesteer import linearise_levers, steering_axis_moments
-from shaftcheck.transient import (
+from shaftcheck.methods.torque_steer import linearise_levers, steering_axis_moments
+from shaftcheck.methods.transient import (
     DrivelineModel,
     side_natural_frequency,
     simulate,

@@ -5,7 +5,7 @@ from __future__ import annotations
 from reportlab.lib.styles import ParagraphStyle
 from reportlab.platypus import CondPageBreak, Paragraph, Spacer
 
-from . import styles as st
+from shaftcheck.report import styles as st
 
 
 class Heading(Paragraph):

@@ -17,7 +17,7 @@ from reportlab.graphics.widgets.markers import makeMarker
 from reportlab.lib.units import mm
 from reportlab.pdfbase.pdfmetrics import stringWidth
 
-from . import styles as st
+from shaftcheck.report import styles as st
 
 FONT, FONT_B = "Helvetica", "Helvetica-Bold"
 TICK_SIZE, LABEL_SIZE, LEGEND_SIZE, TITLE_SIZE = 7, 7.5, 7, 8.5

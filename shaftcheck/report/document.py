@@ -1,10 +1,10 @@
 """The PDF release report: page template, footer, assembly and the atomic write.
 
-``build_pdf(result)`` renders a :class:`~shaftcheck.result.Result` into PDF bytes; identical
+``build_pdf(result)`` renders a :class:`~shaftcheck.studies.result.Result` into PDF bytes; identical
 results give identical bytes (reportlab ``invariant=1``; no clock time is read, the date shown is
 the design's ``project.date``). ``write_report`` writes them atomically and refuses to replace an
-existing file unless ``overwrite`` (:func:`shaftcheck.files.write_bytes_atomic`). This package
-renders numbers computed by the library; it holds no engineering formula.
+existing file unless ``overwrite`` (:func:`~shaftcheck.output.files.write_bytes_atomic`).
+This package renders numbers computed by the library; it holds no engineering formula.
 """
 
 from __future__ import annotations
@@ -17,16 +17,16 @@ from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.pdfgen.canvas import Canvas
 from reportlab.platypus import SimpleDocTemplate
 
-from ..files import OutputExistsError, write_bytes_atomic
-from . import styles as st
-from .blocks import Heading
-from .geometry import geometry
-from .inputs import inputs
-from .methods import cautions, methods
-from .stiffness import stiffness
-from .strength import strength
-from .summary import summary
-from .torque import torque_steer
+from shaftcheck.output.files import OutputExistsError, write_bytes_atomic
+from shaftcheck.report import styles as st
+from shaftcheck.report.blocks import Heading
+from shaftcheck.report.geometry import geometry
+from shaftcheck.report.inputs import inputs
+from shaftcheck.report.methods import cautions, methods
+from shaftcheck.report.stiffness import stiffness
+from shaftcheck.report.strength import strength
+from shaftcheck.report.summary import summary
+from shaftcheck.report.torque import torque_steer
 
 FOOT_SIZE = 7.0
 
@@ -116,7 +116,7 @@ def build_pdf(result) -> bytes:
 def write_report(result, path, *, overwrite: bool = False) -> Path:
     """Write the report of ``result`` to ``path`` [PDF] atomically; returns the path.
 
-    Raises :class:`~shaftcheck.files.OutputExistsError` when ``path`` exists and ``overwrite``
+    Raises :class:`OutputExistsError` when ``path`` exists and ``overwrite``
     is false (the existing file is left untouched). A failure while building or writing leaves
     neither the target nor a temporary file behind.
     """

@@ -2,10 +2,10 @@
 
 from __future__ import annotations
 
-from . import styles as st
-from .blocks import caption, gap, intro, para, section, sub
-from .charts import DASHED, DOTTED, Series, line_chart
-from .tables import data_table, key_value_table
+from shaftcheck.report import styles as st
+from shaftcheck.report.blocks import caption, gap, intro, para, section, sub
+from shaftcheck.report.charts import DASHED, DOTTED, Series, line_chart
+from shaftcheck.report.tables import data_table, key_value_table
 
 SIDES = ("left", "right")
 TRAVEL_STEP = 0.005  # [m] chart resolution over wheel travel
@@ -14,7 +14,7 @@ LINE_WIDTH = {"left": 2.2, "right": 1.0}  # the left line stays visible under an
 
 def sweep(design) -> dict:
     """The library's travel x rack sweep at rack centred and both locks (trade units)."""
-    from ..sweep_table import sweep_data
+    from shaftcheck.studies.sweep import sweep_data
 
     lo, hi = design.suspension.rack_travel
     rack_step = max(-lo, hi, 1e-3)

@@ -9,10 +9,10 @@ from __future__ import annotations
 import math
 from dataclasses import fields
 
-from ..design import HARD_POINTS
-from . import styles as st
-from .blocks import caption, gap, intro, para, section, sub
-from .tables import data_table
+from shaftcheck.model.design import HARD_POINTS
+from shaftcheck.report import styles as st
+from shaftcheck.report.blocks import caption, gap, intro, para, section, sub
+from shaftcheck.report.tables import data_table
 
 SIDES = ("left", "right")
 

@@ -4,11 +4,11 @@ from __future__ import annotations
 
 from pathlib import PurePath
 
-from ..cautions import CAUTION_PARAGRAPHS
-from ..references import REFERENCES
-from . import styles as st
-from .blocks import bullets, caption, intro, section, sub, text
-from .tables import data_table
+from shaftcheck.model.references import REFERENCES
+from shaftcheck.output.cautions import CAUTION_PARAGRAPHS
+from shaftcheck.report import styles as st
+from shaftcheck.report.blocks import bullets, caption, intro, section, sub, text
+from shaftcheck.report.tables import data_table
 
 PROVENANCE = {"S": "confirmed in the source", "M": "from memory - verify",
               "C": "computed for the project notes", "P": "common practice, no source"}
@@ -49,7 +49,7 @@ def used_keys(result, rd: dict) -> list:
             keys += list(extra)
     ts = rd.get("torque_steer")
     if ts:
-        from ..torquesteer import REFERENCE_KEYS
+        from shaftcheck.methods.torque_steer import REFERENCE_KEYS
 
         keys += list(REFERENCE_KEYS)
         if ts.get("split_mu"):

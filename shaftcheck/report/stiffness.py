@@ -2,11 +2,11 @@
 
 from __future__ import annotations
 
-from ..errors import ShaftcheckError
-from . import styles as st
-from .blocks import caption, gap, intro, para, section, sub, text
-from .charts import hbar_chart
-from .tables import data_table
+from shaftcheck.errors import ShaftcheckError
+from shaftcheck.report import styles as st
+from shaftcheck.report.blocks import caption, gap, intro, para, section, sub, text
+from shaftcheck.report.charts import hbar_chart
+from shaftcheck.report.tables import data_table
 
 SIDES = ("left", "right")
 
@@ -61,7 +61,7 @@ def _proposal_rows(p: dict) -> list:
 
 
 def _proposals(design, rd: dict) -> list:
-    from ..sizing import propose_sizes
+    from shaftcheck.studies.sizing import propose_sizes
 
     s = rd["sides"]
     stiffer = "left" if s["left"]["torsional_stiffness_nm_per_deg"] >= \

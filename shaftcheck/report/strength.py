@@ -4,10 +4,10 @@ from __future__ import annotations
 
 import numpy as np
 
-from . import styles as st
-from .blocks import caption, gap, intro, para, section, sub, text
-from .charts import DASHED, Series, line_chart
-from .tables import data_table
+from shaftcheck.report import styles as st
+from shaftcheck.report.blocks import caption, gap, intro, para, section, sub, text
+from shaftcheck.report.charts import DASHED, Series, line_chart
+from shaftcheck.report.tables import data_table
 
 SIDES = ("left", "right")
 SHAFTS = ("halfshaft", "intermediate")
@@ -119,7 +119,7 @@ def _sn_groups(rd: dict, design) -> list:
 
 
 def _sn_chart(members: list, design) -> list:
-    from ..fatigue import basquin_torsion
+    from shaftcheck.methods.fatigue import basquin_torsion
 
     label0, s, mat = members[0]
     endurance = _endurance(s)

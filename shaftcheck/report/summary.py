@@ -6,10 +6,10 @@ from pathlib import PurePath
 
 from reportlab.platypus import Paragraph
 
-from ..cautions import CAUTION_LINE
-from . import styles as st
-from .blocks import bullets, gap, para, section, text
-from .tables import boxed, data_table, key_value_table
+from shaftcheck.output.cautions import CAUTION_LINE
+from shaftcheck.report import styles as st
+from shaftcheck.report.blocks import bullets, gap, para, section, text
+from shaftcheck.report.tables import boxed, data_table, key_value_table
 
 
 def title_block(rd: dict) -> list:

@@ -10,7 +10,7 @@ from reportlab.lib.units import mm
 from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.platypus import Paragraph, Table, TableStyle
 
-from . import styles as st
+from shaftcheck.report import styles as st
 
 PAD = 3.0  # cell padding left and right [pt]
 

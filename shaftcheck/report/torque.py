@@ -4,10 +4,10 @@ from __future__ import annotations
 
 from reportlab.platypus import KeepTogether
 
-from . import styles as st
-from .blocks import caption, gap, intro, para, section, sub, text
-from .charts import DOTTED, Series, line_chart
-from .tables import data_table, side_by_side
+from shaftcheck.report import styles as st
+from shaftcheck.report.blocks import caption, gap, intro, para, section, sub, text
+from shaftcheck.report.charts import DOTTED, Series, line_chart
+from shaftcheck.report.tables import data_table, side_by_side
 
 
 def _xy(x: list, y: list) -> list:

@@ -17,8 +17,8 @@ from pathlib import Path
 ROOT = Path(__file__).resolve().parents[2]
 sys.path.insert(0, str(ROOT))
 
-from shaftcheck.design import load_design  # noqa: E402
-from shaftcheck.evaluate import evaluate  # noqa: E402
+from shaftcheck.io.design_file import load_design  # noqa: E402
+from shaftcheck.studies.evaluate import evaluate  # noqa: E402
 
 RUNS = 7
 

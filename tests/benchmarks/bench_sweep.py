@@ -17,13 +17,13 @@ import numpy as np
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[2]))
 
-from shaftcheck.design import load_design  # noqa: E402
-from shaftcheck.kinematics import (  # noqa: E402
+from shaftcheck.io.design_file import load_design  # noqa: E402
+from shaftcheck.methods.halfshaft_geometry import (  # noqa: E402
     halfshaft_sweep,
     solve_strut,
     solve_strut_pose_scalar,
 )
-from shaftcheck.study import corner_hard_points  # noqa: E402
+from shaftcheck.studies.geometry import corner_hard_points  # noqa: E402
 
 MM = 1e-3
 #: the demo corner (shared/examples/strut_corner_demo.toml), as the example design holds it

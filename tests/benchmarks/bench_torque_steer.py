@@ -15,8 +15,8 @@ import numpy as np
 
 sys.path.insert(0, str(Path(__file__).resolve().parents[2]))
 
-from shaftcheck.torquesteer import steering_axis_moments  # noqa: E402
-from shaftcheck.transient import DrivelineModel, simulate  # noqa: E402
+from shaftcheck.methods.torque_steer import steering_axis_moments  # noqa: E402
+from shaftcheck.methods.transient import DrivelineModel, simulate  # noqa: E402
 
 SIGMA, TAU, R = np.radians(13.0), np.radians(3.0), 0.29
 

@@ -14,7 +14,7 @@ import math
 
 import pytest
 
-from shaftcheck.stressconc import (
+from shaftcheck.methods.stress_concentration import (
     din743_form_factor_torsion,
     din743_k3,
     involute_spline_beta_tau,

@@ -11,7 +11,7 @@ decimal (0.06 MPa).
 
 import pytest
 
-from shaftcheck import buckling as bk
+from shaftcheck.methods import buckling as bk
 
 # (D, t, L mm, r/t, omega, regime, tau_cr EN, classical long) — notes §6 table [C].
 TABLE = [

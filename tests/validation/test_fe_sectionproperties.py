@@ -24,7 +24,7 @@ from sectionproperties.analysis.section import Section
 from sectionproperties.pre.geometry import Geometry
 from shapely.geometry import Polygon
 
-from shaftcheck.sections import SPLINE_STIFFNESS_FRACTION, Segment, polar_moment
+from shaftcheck.methods.sections import SPLINE_STIFFNESS_FRACTION, Segment, polar_moment
 
 MM4 = 1e-12  # m^4 per mm^4
 

@@ -13,8 +13,9 @@ import math
 import numpy as np
 import pytest
 
-from shaftcheck.intermediate import equivalent_load, rating_life
-from shaftcheck.joints import (
+from shaftcheck.methods.halfshaft_geometry import angle_between, joint_geometry, rotate, unit
+from shaftcheck.methods.intermediate_shaft import equivalent_load, rating_life
+from shaftcheck.methods.joints import (
     cardan_chain_speed_ratio,
     cardan_couples,
     cardan_max_twist_error,
@@ -29,7 +30,6 @@ from shaftcheck.joints import (
     equivalent_angle_one_plane,
     tripod_orbit_radius,
 )
-from shaftcheck.kinematics import angle_between, joint_geometry, rotate, unit
 
 D = math.radians
 

@@ -14,7 +14,7 @@ import math
 
 import pytest
 
-from shaftcheck.stressconc import shoulder_fillet_kts, u_groove_kts
+from shaftcheck.methods.stress_concentration import shoulder_fillet_kts, u_groove_kts
 
 # (D/d, r/d, K_ts of the fit) — notes §3.1 table [C], d = 25 mm.
 SHOULDER_FIT = [
@@ -99,7 +99,7 @@ def test_u_groove_semicircular_coefficients():
 
 def test_u_groove_branches_meet_at_x_2():
     # notes §3.2 [C]: the two branches agree within 0.6 % at x = 2 (2.2021 vs 2.2149 at y = 0.05).
-    from shaftcheck.stressconc import _u_groove_coefficients
+    from shaftcheck.methods.stress_concentration import _u_groove_coefficients
 
     y = 0.05
     lo = _u_groove_coefficients(2.0)
@@ -115,7 +115,7 @@ def test_u_groove_branches_meet_at_x_2():
 def test_u_groove_sign_check_at_full_depth(x, expected):
     # notes §3.2: at y = 1 the settled signs give about 0.98 (x = 1) and 0.96 (x = 4); with the
     # wrong C4 = +1.056 the limit would be 3.08. Tolerance 0.01: the notes print 2 decimals.
-    from shaftcheck.stressconc import _u_groove_coefficients
+    from shaftcheck.methods.stress_concentration import _u_groove_coefficients
 
     assert sum(_u_groove_coefficients(x)) == pytest.approx(expected, abs=0.01)
 

@@ -20,7 +20,7 @@ import math
 
 import pytest
 
-from shaftcheck.sections import (
+from shaftcheck.methods.sections import (
     Segment,
     nominal_shear,
     polar_moment,

@@ -13,8 +13,8 @@ import math
 
 import pytest
 
-from shaftcheck import fatigue as fg
-from shaftcheck.stressconc import fatigue_notch_factor, notch_sensitivity_torsion
+from shaftcheck.methods import fatigue as fg
+from shaftcheck.methods.stress_concentration import fatigue_notch_factor, notch_sensitivity_torsion
 
 
 # --- notch sensitivity (notes §3.4 [C]) -------------------------------------------------------
@@ -28,7 +28,7 @@ def test_notch_sensitivity_torsion(sut, r, q):
                                              (470e6, 0.07317)])
 def test_neuber_constant_unit_conversion(sut, sqrt_a_in):
     # notes §3.4: sqrt(a) in sqrt(in) from the kpsi fit; ours is in sqrt(m).
-    from shaftcheck.stressconc import neuber_sqrt_a_torsion
+    from shaftcheck.methods.stress_concentration import neuber_sqrt_a_torsion
 
     assert neuber_sqrt_a_torsion(sut) / math.sqrt(0.0254) == pytest.approx(sqrt_a_in, abs=6e-6)
 

@@ -17,8 +17,8 @@ d_L = (0, 1, 0), d_R = (0, -1, 0). Motion model (A): the knuckle translates rigi
 import numpy as np
 import pytest
 
-from shaftcheck.drivesplit import split_mu
-from shaftcheck.torquesteer import (
+from shaftcheck.methods.drive_split import split_mu
+from shaftcheck.methods.torque_steer import (
     disturbing_lever_arm,
     naive_projection_moments,
     rack_and_steering_wheel,
@@ -27,7 +27,7 @@ from shaftcheck.torquesteer import (
     steering_axis_moments,
     steering_wheel_torque,
 )
-from shaftcheck.transient import DrivelineModel, simulate
+from shaftcheck.methods.transient import DrivelineModel, simulate
 
 SIGMA, TAU, R = np.radians(13.0), np.radians(3.0), 0.29
 I_LEFT = (0.0, 0.20, 0.31)

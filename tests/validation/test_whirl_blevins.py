@@ -14,7 +14,7 @@ import math
 
 import pytest
 
-from shaftcheck import whirl as wh
+from shaftcheck.methods import whirl as wh
 
 E, RHO = 207e9, 7850.0
 

@@ -1,0 +1,2 @@
+"""Reading input: the design-file loader, strict TOML tables, corner tables, data files and
+the starter design."""

@@ -1,0 +1,95 @@
+"""The shipped data library: materials and standard tube sizes (``materials/*.toml``).
+
+The files ship inside the installed package as ``shaftcheck.datafiles`` (see pyproject.toml), so the
+command finds them from any working folder. Values are in trade units with a source per record.
+"""
+
+from __future__ import annotations
+
+from functools import lru_cache
+from importlib import resources
+from pathlib import Path
+
+from shaftcheck.errors import DesignError
+from shaftcheck.io.toml_tables import Table, parse_toml
+from shaftcheck.model.materials import SURFACE_FINISHES, Material
+
+LIBRARY_PACKAGE = "shaftcheck.datafiles"
+
+
+def _library_root():
+    """The folder of the data files: the installed package ``shaftcheck.datafiles``, or, when
+    shaftcheck runs from a source checkout (e.g. tests started in the repository), the
+    repository's ``materials/`` folder beside the package."""
+    try:
+        return resources.files(LIBRARY_PACKAGE)
+    except ModuleNotFoundError:
+        source = Path(__file__).resolve().parent.parent / "materials"
+        if not source.is_dir():
+            raise
+        return source
+
+
+def _library_files(suffix: str):
+    root = _library_root()
+    return sorted((f for f in root.iterdir() if f.name.endswith(suffix)), key=lambda f: f.name)
+
+
+def read_material(t: Table, mid: str, origin: str) -> Material:
+    """One ``[materials.<id>]`` table in trade units -> Material (SI)."""
+    E = t.number("elastic_modulus_gpa", "GPa", positive=True)
+    G = t.number("shear_modulus_gpa", "GPa", positive=True)
+    nu = t.number("poisson_ratio", positive=True, hi=0.5)
+    uts = t.number("ultimate_strength_mpa", "MPa", positive=True)
+    ys = t.number("yield_strength_mpa", "MPa", positive=True)
+    if ys > uts:
+        raise DesignError(t.key("yield_strength_mpa"), f"= {ys:g} MPa: must not exceed "
+                          f"ultimate_strength_mpa = {uts:g} MPa")
+    m = Material(
+        id=mid,
+        name=t.string("name", default=mid),
+        elastic_modulus=E * 1e9,
+        shear_modulus=G * 1e9,
+        poisson_ratio=nu,
+        density=t.number("density_kg_m3", "kg/m^3", positive=True),
+        ultimate_strength=uts * 1e6,
+        yield_strength=ys * 1e6,
+        surface_finish=t.string("surface_finish", choices=SURFACE_FINISHES),
+        source=t.string("source"),
+        basis=t.string("basis", default="nominal", choices=("minimum", "typical", "nominal")),
+        origin=origin,
+    )
+    t.done()
+    return m
+
+
+@lru_cache(maxsize=1)
+def load_library_materials() -> dict:
+    """All materials of the shipped library, id -> Material."""
+    out: dict = {}
+    for f in _library_files(".toml"):
+        if f.name == "tube_sizes.toml":
+            continue
+        data = parse_toml(f.read_text(encoding="utf-8"), f"materials/{f.name}")
+        root = Table(data, "")
+        mt = root.table("materials")
+        for mid in list(mt.data):
+            out[mid] = read_material(mt.table(mid), mid, origin="library")
+        mt.done()
+        root.done()
+    return out
+
+
+@lru_cache(maxsize=1)
+def load_tube_sizes() -> tuple:
+    """Standard tube sizes (outer diameter [m], wall [m]) and the list's stated origin."""
+    f = _library_root() / "tube_sizes.toml"
+    root = Table(parse_toml(f.read_text(encoding="utf-8"), "materials/tube_sizes.toml"), "")
+    origin = root.string("origin")
+    sizes = []
+    for s in root.array_of_tables("sizes"):
+        sizes.append((s.number("outer_diameter_mm", "mm", positive=True) * 1e-3,
+                      s.number("wall_mm", "mm", positive=True) * 1e-3))
+        s.done()
+    root.done()
+    return origin, tuple(sizes)

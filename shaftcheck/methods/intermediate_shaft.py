@@ -1,0 +1,218 @@
+"""Intermediate shaft: support-bearing placement, bearing loads and rating life.
+
+SI throughout: lengths [m], angles [rad], torque [N*m], forces [N], speed [rad/s], life in
+revolutions, seconds or metres (the caller converts to hours and km).
+
+* Placement (DESIGN.md "Bearing placement"; reference notes kinematics_and_torque_steer.md §4.1,
+  key ``notes_kin_intermediate``): the right halfshaft's inboard joint sits at
+  output_point + length * output_axis; choose length inside the allowed range to minimise
+  max over travel of max(|b_in,L - b_in,R|, |b_out,L - b_out,R|) at zero rack, with
+  scipy.optimize.minimize_scalar(method="bounded") on the best interval of a coarse scan (the
+  objective is a maximum of absolute values: kinked and possibly multimodal).
+* Bearing loads (reference notes §2.2 shaft free body, §4.2, ``notes_kin_cv_moment``): at the
+  intermediate shaft's outer end the inboard joint puts the secondary couple -M_I (transverse
+  part) and the halfshaft's transverse force F_O on the intermediate shaft. The shaft is a beam on
+  two simple supports, the differential output point (s = 0) and the bearing (s = length -
+  bearing_offset), with the loads at the overhang end (s = length): statics give both reactions.
+* Life: ISO 281 basic rating life L10 = (C/P)^p 10^6 rev, p = 3 ball, 10/3 roller; variable load
+  P = (sum P_i^p n_i / sum n_i)^(1/p) with n_i the revolutions at P_i (ISO 281 and bearing-maker
+  catalogue practice, from memory [M], key ``iso281_l10``).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import NamedTuple
+
+import numpy as np
+
+from shaftcheck.methods.halfshaft_geometry import joint_geometry
+from shaftcheck.methods.joints import halfshaft_loads
+from shaftcheck.methods.strut_corner import CornerPoses, unit
+
+#: Life exponent p of ISO 281 for ball bearings [-] ([M], from memory).
+BALL_LIFE_EXPONENT = 3.0
+#: Life exponent p of ISO 281 for roller bearings [-] ([M], from memory).
+ROLLER_LIFE_EXPONENT = 10.0 / 3.0
+_SCAN_POINTS = 81
+
+
+@dataclass(frozen=True)
+class BearingPlacement:
+    """Result of :func:`place_bearing`.
+
+    length [m]: output point -> right inboard joint centre. bearing_centre (3,) [m].
+    max_angle_difference [rad]: the objective at ``length``. travel (nt,) [m]. angles: dict of
+    (nt,) arrays [rad]: inboard_left, inboard_right, outboard_left, outboard_right.
+    criterion_met: objective <= limit (None without a limit). limit [rad] or None.
+    scan_length (n,) [m] and scan_difference (n,) [rad]: the coarse scan, for charts.
+    """
+
+    length: float
+    bearing_centre: np.ndarray
+    max_angle_difference: float
+    travel: np.ndarray
+    angles: dict[str, np.ndarray]
+    criterion_met: bool | None
+    limit: float | None
+    scan_length: np.ndarray
+    scan_difference: np.ndarray
+
+
+def _zero_rack(poses: CornerPoses) -> tuple[np.ndarray, np.ndarray]:
+    """Outboard centres and spindle axes (nt, 3) at zero rack from a pose grid."""
+    j = np.flatnonzero(poses.rack == 0.0)
+    if j.size == 0:
+        raise ValueError("the pose grid has no zero-rack column; solve with rack = [0.0]")
+    return poses.outboard_joint_centre[:, j[0]], poses.spindle_axis[:, j[0]]
+
+
+def _right_angles(length, right_outboard, right_spindle, output_point, output_axis):
+    """Right-side angles (n_len, nt) for inboard joints at output_point + length * axis."""
+    inboard = output_point + np.asarray(length, float)[:, None] * output_axis  # (n_len, 3)
+    geo = joint_geometry(inboard[:, None, :], output_axis, right_outboard[None],
+                         right_spindle[None])
+    return geo.inboard_angle, geo.outboard_angle
+
+
+def angle_difference(length, left_angles, right_outboard, right_spindle, output_point,
+                     output_axis) -> np.ndarray:
+    """Objective max_t max(|b_in,L - b_in,R|, |b_out,L - b_out,R|) [rad] for lengths (n,) [m].
+
+    left_angles: (inboard (nt,), outboard (nt,)) [rad] of the left side at zero rack.
+    right_outboard, right_spindle (nt, 3): right outboard joint centres [m] and spindle axes.
+    output_point (3,) [m], output_axis (3,) unit: the intermediate shaft's line.
+    """
+    b_in, b_out = _right_angles(np.atleast_1d(length), right_outboard, right_spindle,
+                                output_point, output_axis)
+    diff = np.maximum(np.abs(left_angles[0] - b_in), np.abs(left_angles[1] - b_out))
+    return diff.max(axis=-1)
+
+
+def place_bearing(left: CornerPoses, right: CornerPoses, left_inboard_centre, left_output_axis,
+                  right_output_point, right_output_axis, length_range, bearing_offset: float,
+                  limit: float | None = None) -> BearingPlacement:
+    """Place the intermediate-shaft bearing so both sides' joint angles match over travel.
+
+    left, right: pose grids over the same travel vector containing rack = 0 (e.g.
+    ``solve_strut(hp, travel, [0.0])``). left_inboard_centre (3,) [m], left_output_axis (3,):
+    the left halfshaft's fixed inboard joint. right_output_point (3,) [m], right_output_axis
+    (3,): the differential output point and axis of the intermediate shaft (towards the right
+    wheel). length_range (lo, hi) [m]. bearing_offset [m]: bearing centre sits this far inboard of
+    the right inboard joint centre. limit [rad]: allowed angle difference (criterion), optional.
+    Method: module docstring.
+    """
+    from scipy.optimize import minimize_scalar
+
+    if not np.allclose(left.travel, right.travel):
+        raise ValueError("left and right poses must share the travel vector")
+    lo, hi = (float(x) for x in length_range)
+    if not 0.0 <= lo < hi:
+        raise ValueError("length_range must satisfy 0 <= lo < hi")
+    axis = unit(np.asarray(right_output_axis, float))
+    point = np.asarray(right_output_point, float)
+    l_out, l_spin = _zero_rack(left)
+    r_out, r_spin = _zero_rack(right)
+    left_geo = joint_geometry(left_inboard_centre, left_output_axis, l_out, l_spin)
+    left_angles = (left_geo.inboard_angle, left_geo.outboard_angle)
+
+    def objective(x):
+        return float(angle_difference(x, left_angles, r_out, r_spin, point, axis)[0])
+
+    scan = np.linspace(lo, hi, _SCAN_POINTS)
+    values = angle_difference(scan, left_angles, r_out, r_spin, point, axis)
+    k = int(np.argmin(values))
+    bracket = (scan[max(k - 1, 0)], scan[min(k + 1, scan.size - 1)])
+    opt = minimize_scalar(objective, bounds=bracket, method="bounded",
+                          options={"xatol": 1e-10, "maxiter": 500})
+    length, best = (float(opt.x), float(opt.fun)) if opt.fun <= values[k] else (scan[k], values[k])
+    b_in, b_out = _right_angles(np.array([length]), r_out, r_spin, point, axis)
+    angles = {"inboard_left": left_angles[0], "inboard_right": b_in[0],
+              "outboard_left": left_angles[1], "outboard_right": b_out[0]}
+    return BearingPlacement(
+        length=length, bearing_centre=point + (length - bearing_offset) * axis,
+        max_angle_difference=best, travel=np.asarray(left.travel, float), angles=angles,
+        criterion_met=None if limit is None else bool(best <= limit), limit=limit,
+        scan_length=scan, scan_difference=values)
+
+
+# --- loads ----------------------------------------------------------------------------------
+
+class BearingLoad(NamedTuple):
+    """Support reactions of the intermediate shaft, arrays over the torque/pose shape.
+
+    bearing_force (..., 3) [N]: force of the bearing on the shaft (radial, perpendicular to the
+    axis). output_force (..., 3) [N]: radial force of the differential output support on the
+    shaft. bearing_radial [N], output_radial [N]: their magnitudes. axial_force [N]: the axial
+    part of the joint force along the output axis (to the axial locating bearing; not in P).
+    couple [N*m]: transverse moment the inboard joint puts on the intermediate shaft.
+    """
+
+    bearing_force: np.ndarray
+    output_force: np.ndarray
+    bearing_radial: np.ndarray
+    output_radial: np.ndarray
+    axial_force: np.ndarray
+    couple: np.ndarray
+
+
+def bearing_reactions(torque, output_point, output_axis, length, bearing_offset,
+                      outboard_centre, spindle_axis) -> BearingLoad:
+    """Reactions of the diff output support and the bearing at shaft torque T [N*m].
+
+    torque (...) [N*m]; output_point (3,) [m]; output_axis (3,) unit, towards the wheel;
+    length [m] (output point -> right inboard joint I); bearing_offset [m]; outboard_centre
+    and spindle_axis (..., 3): the right halfshaft's outboard joint centre [m] and spindle.
+    End loads at I on the intermediate shaft: moment -M_I (its transverse part, magnitude
+    T tan(b_i/2)) and force +F_O (reaction of the halfshaft's -F_O), reference notes §2.2 [DER].
+    Beam on supports at s = 0 and s = a = length - bearing_offset (a > 0), load at s = length:
+    R_B = (d x M_t - length F_r) / a, R_A = -F_r - R_B (force and moment equilibrium).
+    """
+    d = unit(np.asarray(output_axis, float))
+    span = float(length) - float(bearing_offset)
+    if span <= 0.0:
+        raise ValueError("the bearing must sit outboard of the output point (length > offset)")
+    inboard = np.asarray(output_point, float) + float(length) * d
+    loads = halfshaft_loads(torque, d, inboard, outboard_centre, spindle_axis)
+    moment = -loads.inboard_moment
+    m_t = moment - np.sum(moment * d, -1, keepdims=True) * d
+    force = loads.force_at_outboard
+    axial = np.sum(force * d, -1)
+    f_r = force - axial[..., None] * d
+    r_b = (np.cross(d, m_t) - float(length) * f_r) / span
+    r_a = -f_r - r_b
+    return BearingLoad(r_b, r_a, np.linalg.norm(r_b, axis=-1), np.linalg.norm(r_a, axis=-1),
+                       axial, np.linalg.norm(m_t, axis=-1))
+
+
+def rating_life(dynamic_rating, load, exponent: float = BALL_LIFE_EXPONENT):
+    """ISO 281 basic rating life L10 = (C/P)^p * 10^6 [revolutions] ([M], key iso281_l10).
+
+    dynamic_rating C [N], equivalent dynamic load P [N] (> 0), exponent p = 3 ball, 10/3 roller.
+    Example (reference notes §4.2 [DER]): C = 20 kN, P = 1 kN -> 8000e6 revolutions.
+    """
+    return (np.asarray(dynamic_rating, float) / np.asarray(load, float)) ** exponent * 1e6
+
+
+def rating_life_time(dynamic_rating, load, speed, exponent: float = BALL_LIFE_EXPONENT):
+    """L10 as running time [s] at shaft speed [rad/s]: L10 / (speed / 2 pi) (L10h = s / 3600)."""
+    return rating_life(dynamic_rating, load, exponent) * 2.0 * np.pi / np.asarray(speed, float)
+
+
+def rating_life_distance(dynamic_rating, load, rolling_radius,
+                         exponent: float = BALL_LIFE_EXPONENT):
+    """L10 as vehicle distance [m], shaft at wheel speed: L10 * 2 pi R, R = rolling radius [m]."""
+    return rating_life(dynamic_rating, load, exponent) * 2.0 * np.pi * float(rolling_radius)
+
+
+def equivalent_load(loads, revolutions, exponent: float = BALL_LIFE_EXPONENT):
+    """Equivalent constant load of a load spectrum [N] ([M], ISO 281 / bearing-maker practice):
+
+    P = (sum P_i^p n_i / sum n_i)^(1/p); loads P_i [N], revolutions n_i (or any quantity
+    proportional to the revolutions run at P_i, e.g. time fractions at one speed).
+    """
+    p = np.asarray(loads, float)
+    n = np.asarray(revolutions, float)
+    if p.shape != n.shape or np.any(n < 0) or n.sum() <= 0:
+        raise ValueError("loads and revolutions must match in shape, revolutions >= 0, sum > 0")
+    return float((np.sum(p**exponent * n) / n.sum()) ** (1.0 / exponent))

@@ -1,0 +1,242 @@
+"""Torsion of round, tubular and splined shaft segments, and of stepped shafts in series.
+
+SI throughout: lengths [m], torque [N*m], stress [Pa], stiffness [N*m/rad], angles [rad].
+
+Formulas (reference keys in :mod:`shaftcheck.model.references`):
+
+* J = pi d^4 / 32 (solid), J = pi (D^4 - d_i^4) / 32 (tube): Roark's Formulas for Stress and
+  Strain 7th ed., Table 10.1 case 1 and hollow circle; Shigley ch. 3 (``roark7_t10_1``).
+* tau = T r / J, twist theta = T L / (G J), stiffness k = G J / L (``roark7_t10_1``).
+* Segments in series carry one torque: 1/k = sum L_i / (G_i J_i) (``shigley_ch4_series``).
+* Spline stiffness: an equivalent round of diameter d_eq = d_minor + c (d_major - d_minor),
+  c = 0.25 by default; FE values for involute splines give c = 0.22 ... 0.32 (project notes
+  ``notes_spline_fe``, computed with sectionproperties). Stress at a spline uses the minor (root)
+  diameter, never d_eq (``notes_spline_fe``).
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+from dataclasses import dataclass
+
+from shaftcheck.methods.stress_concentration import SHARP_SHOULDER_KTS, shoulder_fillet_kts
+
+SEGMENT_KINDS = ("solid", "tube", "spline")
+
+#: Default fraction c of the spline tooth height added to the minor diameter for stiffness.
+SPLINE_STIFFNESS_FRACTION = 0.25
+
+
+@dataclass(frozen=True)
+class Segment:
+    """One prismatic piece of a shaft, in SI units.
+
+    kind: "solid" | "tube" | "spline".
+    length [m].
+    outer_diameter [m]: solid diameter, tube outside diameter or spline major diameter.
+    inner_diameter [m]: tube bore; 0 for solid and spline.
+    minor_diameter [m]: spline root (minor) diameter; None otherwise.
+    stiffness_diameter [m]: spline equivalent diameter for stiffness when given; None = rule.
+    fillet_radius [m]: fillet at the step into the next segment; None = not given.
+    """
+
+    kind: str
+    length: float
+    outer_diameter: float
+    inner_diameter: float = 0.0
+    minor_diameter: float | None = None
+    stiffness_diameter: float | None = None
+    fillet_radius: float | None = None
+
+    def __post_init__(self):
+        if self.kind not in SEGMENT_KINDS:
+            raise ValueError(f"unknown segment kind {self.kind!r}")
+        if self.length <= 0 or self.outer_diameter <= 0:
+            raise ValueError("segment length and diameter must be positive")
+        if self.inner_diameter < 0 or self.inner_diameter >= self.outer_diameter:
+            raise ValueError("inner diameter must be >= 0 and below the outer diameter")
+        if self.kind == "spline" and not (
+            self.minor_diameter and 0 < self.minor_diameter < self.outer_diameter
+        ):
+            raise ValueError("a spline needs 0 < minor diameter < major diameter")
+
+    @property
+    def torsion_diameter(self) -> float:
+        """Outer diameter of the equivalent round used for stiffness [m]."""
+        if self.kind == "spline":
+            if self.stiffness_diameter is not None:
+                return self.stiffness_diameter
+            return spline_stiffness_diameter(self.outer_diameter, self.minor_diameter)
+        return self.outer_diameter
+
+    @property
+    def stress_diameter(self) -> float:
+        """Outer diameter on which the nominal shear stress is computed [m]: root for a spline."""
+        return self.minor_diameter if self.kind == "spline" else self.outer_diameter
+
+    @property
+    def polar_moment(self) -> float:
+        """J used for stiffness [m^4]."""
+        return polar_moment(self.torsion_diameter, self.inner_diameter)
+
+    @property
+    def stress_polar_moment(self) -> float:
+        """J of the section on which stress is computed [m^4]."""
+        return polar_moment(self.stress_diameter, self.inner_diameter)
+
+    @property
+    def area(self) -> float:
+        """Metal cross-section area [m^2] for mass (spline: equivalent round)."""
+        return math.pi / 4.0 * (self.torsion_diameter**2 - self.inner_diameter**2)
+
+    def describe(self) -> str:
+        """Short trade-unit description, e.g. 'tube 42.0 x 3.0 mm, 520 mm'."""
+        L = self.length * 1e3
+        if self.kind == "tube":
+            wall = (self.outer_diameter - self.inner_diameter) / 2 * 1e3
+            return f"tube {self.outer_diameter * 1e3:.1f} x {wall:.2f} mm, {L:.0f} mm"
+        if self.kind == "spline":
+            return (
+                f"spline {self.outer_diameter * 1e3:.1f}/{self.minor_diameter * 1e3:.1f} mm, "
+                f"{L:.0f} mm"
+            )
+        return f"solid {self.outer_diameter * 1e3:.1f} mm, {L:.0f} mm"
+
+
+def spline_stiffness_diameter(major: float, minor: float,
+                              fraction: float = SPLINE_STIFFNESS_FRACTION) -> float:
+    """Equivalent round diameter of a spline for torsional stiffness [m].
+
+    d_eq = d_minor + c (d_major - d_minor), c = 0.25 by default (project notes §2.2, FE band
+    0.22 ... 0.32 for involute splines; ``notes_spline_fe``).
+    """
+    return minor + fraction * (major - minor)
+
+
+def polar_moment(outer_diameter: float, inner_diameter: float = 0.0) -> float:
+    """Polar second moment of a solid or annular round, J = pi (D^4 - d_i^4) / 32 [m^4].
+
+    Source: Roark 7th ed. Table 10.1 (``roark7_t10_1``).
+
+    >>> round(polar_moment(25e-3) * 1e12, 2)        # mm^4, notes §1 check value
+    38349.52
+    """
+    return math.pi * (outer_diameter**4 - inner_diameter**4) / 32.0
+
+
+def nominal_shear(torque: float, outer_diameter: float, inner_diameter: float = 0.0) -> float:
+    """Nominal surface shear tau = 16 T D / (pi (D^4 - d_i^4)) [Pa] (``roark7_t10_1``).
+
+    >>> round(nominal_shear(1000.0, 25e-3) / 1e6, 2)   # notes §1: 325.95 MPa
+    325.95
+    """
+    return torque * (outer_diameter / 2.0) / polar_moment(outer_diameter, inner_diameter)
+
+
+def segment_stiffness(seg: Segment, shear_modulus: float) -> float:
+    """k = G J / L [N*m/rad] of one segment; G in [Pa]."""
+    return shear_modulus * seg.polar_moment / seg.length
+
+
+def series_stiffness(stiffnesses: Sequence[float]) -> float:
+    """Stiffness of springs in series carrying one torque: 1/k = sum 1/k_i [N*m/rad].
+
+    An infinite entry (``math.inf``) adds no compliance. Source: ``shigley_ch4_series``.
+    """
+    compliance = sum(0.0 if math.isinf(k) else 1.0 / k for k in stiffnesses)
+    return math.inf if compliance == 0.0 else 1.0 / compliance
+
+
+def shaft_stiffness(segments: Sequence[Segment], shear_modulus: float) -> float:
+    """Stiffness of a stepped shaft, its segments in series [N*m/rad]."""
+    return series_stiffness([segment_stiffness(s, shear_modulus) for s in segments])
+
+
+def compliance_shares(stiffnesses: Sequence[float]) -> list[float]:
+    """Each element's share of the total compliance (= its share of the twist), summing to 1."""
+    comp = [0.0 if math.isinf(k) else 1.0 / k for k in stiffnesses]
+    total = sum(comp)
+    return [c / total for c in comp]
+
+
+@dataclass(frozen=True)
+class StepConcentration:
+    """The shoulder-fillet concentration at the step between segment ``index`` and ``index + 1``."""
+
+    index: int
+    large_diameter: float  # [m]
+    small_diameter: float  # [m]
+    small_index: int  # which segment carries the nominal stress
+    fillet_radius: float | None  # [m]
+    kts: float
+    valid: bool
+    note: str
+
+
+def step_concentrations(segments: Sequence[Segment]) -> list[StepConcentration]:
+    """Shoulder-fillet K_ts at every diameter step of a stepped shaft.
+
+    The nominal stress is the one of the segment with the smaller stress diameter. The fillet
+    radius is the one given on the segment before the step. Rules (stated in the output):
+
+    * fillet given, 0.25 <= t/r <= 4: Pilkey chart 3.12 fit (``pilkey2008_3_12``);
+    * fit outside its range: the fit value is kept and flagged (``valid = False``);
+    * no fillet given: Shigley Table 7-1 sharp-shoulder estimate K_ts = 2.2 (``shigley_t7_1``),
+      flagged;
+    * the smaller side is a spline: no shoulder factor here, the spline root notch governs
+      (strength module), noted.
+    """
+    out: list[StepConcentration] = []
+    for i in range(len(segments) - 1):
+        a, b = segments[i], segments[i + 1]
+        da, db = a.stress_diameter, b.stress_diameter
+        if math.isclose(da, db, rel_tol=1e-9):
+            continue
+        small_idx = i if da < db else i + 1
+        D, d = max(da, db), min(da, db)
+        r = a.fillet_radius
+        small = segments[small_idx]
+        if small.kind == "spline":
+            out.append(StepConcentration(i, D, d, small_idx, r, 1.0, True,
+                                         "spline runout: the spline root notch factor governs"))
+            continue
+        if r is None:
+            out.append(StepConcentration(i, D, d, small_idx, None, SHARP_SHOULDER_KTS, False,
+                                         "no fillet radius given: sharp-shoulder estimate 2.2 "
+                                         "(Shigley Table 7-1)"))
+            continue
+        k = shoulder_fillet_kts(D, d, r)
+        note = k.note
+        if a.kind == "tube" or b.kind == "tube":
+            note = (note + "; " if note else "") + "solid-bar fit applied at a tube step"
+        out.append(StepConcentration(i, D, d, small_idx, r, k.value, k.valid, note))
+    return out
+
+
+@dataclass(frozen=True)
+class SegmentStress:
+    """Shear stresses of one segment at a torque [Pa]."""
+
+    index: int
+    nominal: float
+    kts: float  # largest K_ts at the steps bounding this segment (1 if none)
+    peak: float
+
+
+def segment_stresses(segments: Sequence[Segment], torque: float) -> list[SegmentStress]:
+    """Nominal and peak (K_ts included) shear of each segment at ``torque`` [N*m] -> [Pa]."""
+    steps = step_concentrations(segments)
+    worst = [1.0] * len(segments)
+    for st in steps:
+        worst[st.small_index] = max(worst[st.small_index], st.kts)
+    out = []
+    for i, s in enumerate(segments):
+        tau = nominal_shear(torque, s.stress_diameter, s.inner_diameter)
+        out.append(SegmentStress(i, tau, worst[i], tau * worst[i]))
+    return out
+
+
+def twist(torque: float, stiffness: float) -> float:
+    """Twist angle theta = T / k [rad]."""
+    return torque / stiffness

@@ -1,0 +1,354 @@
+"""MacPherson-strut corner: poses of the upright over a wheel-travel x rack-travel grid.
+
+SI throughout: points [m], travel and rack [m], angles [rad]. ISO 8855 vehicle axes (x forward,
+y left, z up); the left corner is on +y.
+
+Model (DESIGN.md "Strut corner"; reference notes kinematics_and_torque_steer.md §3.2 model (C),
+key ``notes_kin_strut``):
+
+* the lower ball joint L swings on a circle about the lower-arm pivot axis (front -> rear pivot);
+* the upright (knuckle) is a rigid body carrying the wheel centre W, the spindle axis b, the
+  tie-rod outer point and the outboard joint centre; it turns about, and slides along, the line
+  L -> strut top S (S fixed to the body). That line is the steering axis;
+* the tie rod keeps its length while its inner point moves by ``rack`` along +y;
+* wheel travel is the change of the wheel-centre z from design, at the rack position asked for.
+
+Solution (vectorised over the grid, no per-pose Python loop):
+
+1. For an arm angle phi, L(phi) follows in closed form (Rodrigues rotation about the pivot axis).
+   The knuckle-fixed strut direction k0 = unit(S0 - L0) is carried onto k = unit(S - L) by the
+   smallest rotation R0, and the upright may still turn by psi about k.
+2. The tie-rod closure |L + Rot(k, psi) R0 (T_o0 - L0) - T_i|^2 = l^2 reads
+   A cos psi + B sin psi = C: closed form, psi = atan2(B, A) +/- arccos(C / hypot(A, B)); the branch
+   is the one of the design pose. |C| > hypot(A, B) means the tie rod cannot close.
+3. The wheel-centre height z_W(phi) = z_W0 + travel is solved for phi by a vectorised Newton
+   iteration (central-difference slope), one loop over iterations only.
+
+Poses the linkage cannot reach raise :class:`shaftcheck.errors.UnreachablePoseError` for the first
+bad pose (travel-major order), never a silent NaN.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field, replace
+
+import numpy as np
+
+from shaftcheck.errors import UnreachablePoseError
+
+#: Newton tolerance on the wheel-centre height [m].
+HEIGHT_TOLERANCE = 1e-12
+#: Largest arm swing accepted from design [rad]; beyond it the lower arm is "past its range".
+MAX_ARM_SWING = np.radians(75.0)
+_MAX_ITERATIONS = 40
+_SLOPE_STEP = 1e-6  # [rad] central-difference step of the height slope
+
+
+def unit(v: np.ndarray) -> np.ndarray:
+    """Unit vectors along the last axis of ``v`` (any leading shape)."""
+    v = np.asarray(v, dtype=float)
+    return v / np.linalg.norm(v, axis=-1, keepdims=True)
+
+
+def rotate(v: np.ndarray, axis: np.ndarray, angle: np.ndarray) -> np.ndarray:
+    """Rotate vectors ``v`` about unit ``axis`` by ``angle`` [rad] (Rodrigues), broadcasting.
+
+    v' = v cos a + (e x v) sin a + e (e . v)(1 - cos a), right-hand rule about e.
+    """
+    v = np.asarray(v, dtype=float)
+    e = np.asarray(axis, dtype=float)
+    a = np.asarray(angle, dtype=float)[..., None]
+    dot = np.sum(e * v, axis=-1, keepdims=True)
+    return v * np.cos(a) + np.cross(e, v) * np.sin(a) + e * dot * (1.0 - np.cos(a))
+
+
+def align(v: np.ndarray, k0: np.ndarray, k: np.ndarray) -> np.ndarray:
+    """Apply to ``v`` the smallest rotation that carries unit ``k0`` onto unit ``k`` (broadcast).
+
+    R = I + [w]x + [w]x^2 / (1 + c), w = k0 x k, c = k0 . k (valid for c > -1).
+    """
+    w = np.cross(k0, k)
+    c = np.sum(k0 * k, axis=-1, keepdims=True)
+    wv = np.cross(w, v)
+    return v + wv + np.cross(w, wv) / (1.0 + c)
+
+
+@dataclass(frozen=True)
+class StrutHardPoints:
+    """Design-position hard points of one strut corner, vehicle axes [m].
+
+    lower_arm_front, lower_arm_rear: lower-arm pivot points (pivot axis front -> rear) [m].
+    lower_ball_joint: lower ball joint centre [m]. strut_top: top-mount centre (fixed) [m].
+    tie_rod_inner, tie_rod_outer: tie-rod ball centres [m]. wheel_centre [m].
+    spindle_axis: unit vector, outboard [-]. outboard_joint_offset: outboard joint centre sits this
+    far inboard of the wheel centre along the spindle axis [m].
+    """
+
+    lower_arm_front: np.ndarray
+    lower_arm_rear: np.ndarray
+    lower_ball_joint: np.ndarray
+    strut_top: np.ndarray
+    tie_rod_inner: np.ndarray
+    tie_rod_outer: np.ndarray
+    wheel_centre: np.ndarray
+    spindle_axis: np.ndarray
+    outboard_joint_offset: float
+
+    _POINTS = ("lower_arm_front", "lower_arm_rear", "lower_ball_joint", "strut_top",
+               "tie_rod_inner", "tie_rod_outer", "wheel_centre", "spindle_axis")
+
+    def __post_init__(self):
+        for name in self._POINTS:
+            value = np.array(getattr(self, name), dtype=float)
+            if value.shape != (3,) or not np.all(np.isfinite(value)):
+                raise ValueError(f"{name} must be a finite 3-vector")
+            value.setflags(write=False)
+            object.__setattr__(self, name, value)
+        norm = float(np.linalg.norm(self.spindle_axis))
+        if abs(norm - 1.0) > 1e-3:
+            raise ValueError(f"spindle_axis must be a unit vector (norm {norm:.5f})")
+        spindle = self.spindle_axis / norm
+        spindle.setflags(write=False)
+        object.__setattr__(self, "spindle_axis", spindle)
+        object.__setattr__(self, "outboard_joint_offset", float(self.outboard_joint_offset))
+
+    def mirrored(self) -> StrutHardPoints:
+        """The same corner mirrored in the vehicle centre plane (y -> -y)."""
+        flip = np.array([1.0, -1.0, 1.0])
+        return replace(self, **{name: getattr(self, name) * flip for name in self._POINTS})
+
+    @property
+    def outboard_joint_centre(self) -> np.ndarray:
+        """Design outboard joint centre W - offset * b [m]."""
+        return self.wheel_centre - self.outboard_joint_offset * self.spindle_axis
+
+    @property
+    def steering_axis(self) -> np.ndarray:
+        """Design steering axis, unit lower ball joint -> strut top [-]."""
+        return unit(self.strut_top - self.lower_ball_joint)
+
+
+@dataclass(frozen=True)
+class CornerPoses:
+    """Poses of one corner over a travel x rack grid; every point array has shape (nt, nr, 3) [m].
+
+    travel (nt,) [m], rack (nr,) [m]: the grid asked for (rack = +y shift of the tie-rod inner
+    point). spindle_axis and steering_axis are unit vectors; steering_axis points up, from the
+    lower ball joint to the strut top. Fields a table corner cannot give are None.
+    """
+
+    travel: np.ndarray
+    rack: np.ndarray
+    wheel_centre: np.ndarray
+    spindle_axis: np.ndarray
+    outboard_joint_centre: np.ndarray
+    lower_ball_joint: np.ndarray | None = None
+    steering_axis: np.ndarray | None = None
+    tie_rod_outer: np.ndarray | None = None
+    tie_rod_inner: np.ndarray | None = None
+    arm_angle: np.ndarray | None = field(default=None, repr=False)
+
+    def contact_patch(self, loaded_radius: float) -> np.ndarray:
+        """Contact-patch centre C = W - R u, (nt, nr, 3) [m], R = loaded radius [m].
+
+        u = unit(z_hat - (z_hat . b) b) is the unit vector in the wheel's mid-plane (normal b, the
+        spindle axis) pointing most nearly up, so C lies R below the wheel centre W in that plane;
+        camber tilts it with the wheel. C is on the ground (z = 0) only when the ground is there.
+        Convention of this project (DESIGN.md, torque-steer model), not a published definition.
+        """
+        z = np.array([0.0, 0.0, 1.0])
+        b = self.spindle_axis
+        up = unit(z - np.sum(z * b, axis=-1, keepdims=True) * b)
+        return self.wheel_centre - float(loaded_radius) * up
+
+    def at(self, i: int, j: int) -> dict[str, np.ndarray]:
+        """The pose at travel index i and rack index j as a dict of 3-vectors."""
+        names = ("wheel_centre", "spindle_axis", "outboard_joint_centre", "lower_ball_joint",
+                 "steering_axis", "tie_rod_outer", "tie_rod_inner")
+        return {n: getattr(self, n)[i, j] for n in names if getattr(self, n) is not None}
+
+
+@dataclass(frozen=True)
+class _Frame:
+    """Constant geometry of the strut solve, derived from the hard points (all [m] or unit)."""
+
+    pivot_point: np.ndarray  # foot of the lower ball joint on the pivot axis
+    pivot_axis: np.ndarray  # unit front -> rear
+    arm_radius: np.ndarray  # L0 - pivot_point
+    k0: np.ndarray  # design steering axis
+    tie_rod_length: float
+    branch: float  # +1 or -1: the tie-rod closure branch of the design pose
+
+
+def _frame(hp: StrutHardPoints) -> _Frame:
+    e = unit(hp.lower_arm_rear - hp.lower_arm_front)
+    rel = hp.lower_ball_joint - hp.lower_arm_front
+    foot = hp.lower_arm_front + np.dot(rel, e) * e
+    frame = _Frame(foot, e, hp.lower_ball_joint - foot, hp.steering_axis,
+                   float(np.linalg.norm(hp.tie_rod_outer - hp.tie_rod_inner)), 1.0)
+    # the design pose has psi = 0; pick the branch that reproduces it
+    psi_plus, _ = _closure(hp, frame, np.zeros(1), np.zeros(1), 1.0)
+    psi_minus, _ = _closure(hp, frame, np.zeros(1), np.zeros(1), -1.0)
+    branch = 1.0 if abs(psi_plus[0]) <= abs(psi_minus[0]) else -1.0
+    return replace(frame, branch=branch)
+
+
+def _upright(hp, frame, phi):
+    """Lower ball joint L and steering axis k for arm angles phi (any shape)."""
+    lbj = frame.pivot_point + rotate(frame.arm_radius, frame.pivot_axis, phi)
+    k = unit(hp.strut_top - lbj)
+    return lbj, k
+
+
+def _closure(hp, frame, phi, rack, branch):
+    """Tie-rod closure on ``branch``: returns (psi [rad], margin); margin < 0: cannot close."""
+    lbj, k = _upright(hp, frame, phi)
+    p = align(hp.tie_rod_outer - hp.lower_ball_joint, frame.k0, k)
+    p_par = np.sum(p * k, axis=-1, keepdims=True) * k
+    p_perp = p - p_par
+    inner = hp.tie_rod_inner + rack[..., None] * np.array([0.0, 1.0, 0.0])
+    d = lbj - inner
+    a = np.sum(d * p_perp, axis=-1)
+    b = np.sum(d * np.cross(k, p_perp), axis=-1)
+    c = 0.5 * (frame.tie_rod_length**2 - np.sum(d * d, -1) - np.sum(p * p, -1)) - np.sum(
+        d * p_par, -1)
+    ratio = c / np.hypot(a, b)
+    psi = np.arctan2(b, a) + branch * np.arccos(np.clip(ratio, -1.0, 1.0))
+    return (psi + np.pi) % (2.0 * np.pi) - np.pi, 1.0 - np.abs(ratio)
+
+
+def _place(hp, frame, phi, psi, vector, point=True):
+    """Carry a knuckle-fixed design point (or direction) to the pose (phi, psi)."""
+    lbj, k = _upright(hp, frame, phi)
+    rel = vector - hp.lower_ball_joint if point else vector
+    moved = rotate(align(rel, frame.k0, k), k, psi)
+    return lbj + moved if point else moved
+
+
+def _height(hp, frame, phi, rack):
+    psi, margin = _closure(hp, frame, phi, rack, frame.branch)
+    return _place(hp, frame, phi, psi, hp.wheel_centre)[..., 2], psi, margin
+
+
+def _newton(hp, frame, target, rack):
+    """Arm angles phi with z_W(phi) = target over the grid; returns phi, psi, margin, ok flags."""
+    h = _SLOPE_STEP
+    z0 = _height(hp, frame, np.zeros(1), np.zeros(1))[0]
+    slope0 = (_height(hp, frame, np.full(1, h), np.zeros(1))[0] - z0) / h
+    phi = (target - hp.wheel_centre[2]) / slope0[0]
+    phi = np.clip(phi, -0.9 * MAX_ARM_SWING, 0.9 * MAX_ARM_SWING)
+    for _ in range(_MAX_ITERATIONS):
+        z, psi, margin = _height(hp, frame, phi, rack)
+        res = z - target
+        if np.all(np.abs(res) < HEIGHT_TOLERANCE):
+            break
+        slope = (_height(hp, frame, phi + h, rack)[0] - _height(hp, frame, phi - h, rack)[0]) / (
+            2 * h)
+        bad_slope = np.sign(slope) != np.sign(slope0[0])
+        step = np.where(bad_slope, 0.0, -res / np.where(bad_slope, 1.0, slope))
+        phi = np.clip(phi + np.clip(step, -0.2, 0.2), -MAX_ARM_SWING, MAX_ARM_SWING)
+    z, psi, margin = _height(hp, frame, phi, rack)
+    converged = np.abs(z - target) < 1e-9
+    return phi, psi, margin, converged
+
+
+def _first_bad(side, travel, rack, margin, converged, phi):
+    """Raise UnreachablePoseError for the first bad pose in travel-major order, if any."""
+    tie_bad = margin < 0
+    arm_bad = np.abs(phi) >= MAX_ARM_SWING - 1e-12
+    bad = tie_bad | arm_bad | ~converged
+    if not np.any(bad):
+        return
+    i, j = np.argwhere(bad)[0]
+    if arm_bad[i, j]:
+        reason = (f"the lower arm would swing past {np.degrees(MAX_ARM_SWING):.0f} deg from design"
+                  " to reach this wheel travel")
+    elif not converged[i, j]:
+        reason = "the lower arm cannot reach this wheel-centre height (Newton did not converge)"
+    else:
+        reason = "the tie rod cannot close (tie-rod length cannot be kept at this rack position)"
+    raise UnreachablePoseError(side, travel[i] * 1e3, rack[j] * 1e3, reason)
+
+
+def solve_strut(hp: StrutHardPoints, travel, rack, side: str = "left") -> CornerPoses:
+    """Poses of a strut corner over the travel x rack grid (vectorised).
+
+    hp: design hard points of this corner (use ``hp.mirrored()`` for a mirrored right corner).
+    travel (nt,) [m]: wheel-centre z change from design, jounce positive.
+    rack (nr,) [m]: displacement of the tie-rod inner point along +y (the car's left) from
+    design. The rack is one bar, so the same value moves both sides' inner points towards +y:
+    on a mirrored right corner, rack r matches the left corner at -r.
+    side: "left" | "right", used in error messages only.
+
+    Returns CornerPoses with (nt, nr, 3) arrays. Raises UnreachablePoseError (travel and rack in
+    mm) for the first pose, in travel-major order, that the linkage cannot reach.
+    Model and method: module docstring; reference notes §3.2 model (C) (``notes_kin_strut``).
+    """
+    travel = np.atleast_1d(np.asarray(travel, dtype=float))
+    rack = np.atleast_1d(np.asarray(rack, dtype=float))
+    if travel.ndim != 1 or rack.ndim != 1:
+        raise ValueError("travel and rack must be 1-D arrays")
+    frame = _frame(hp)
+    target = hp.wheel_centre[2] + travel[:, None] + 0.0 * rack[None, :]
+    rack_grid = np.broadcast_to(rack[None, :], target.shape)
+    phi, psi, margin, converged = _newton(hp, frame, target, rack_grid)
+    _first_bad(side, travel, rack, margin, converged, phi)
+    return _poses(hp, frame, travel, rack, phi, psi)
+
+
+def _poses(hp, frame, travel, rack, phi, psi) -> CornerPoses:
+    lbj, k = _upright(hp, frame, phi)
+    wheel = _place(hp, frame, phi, psi, hp.wheel_centre)
+    spindle = unit(_place(hp, frame, phi, psi, hp.spindle_axis, point=False))
+    inner = hp.tie_rod_inner + rack[None, :, None] * np.array([0.0, 1.0, 0.0])
+    inner = np.broadcast_to(inner, wheel.shape).copy()
+    return CornerPoses(
+        travel=travel, rack=rack, wheel_centre=wheel, spindle_axis=spindle,
+        outboard_joint_centre=wheel - hp.outboard_joint_offset * spindle,
+        lower_ball_joint=lbj, steering_axis=k,
+        tie_rod_outer=_place(hp, frame, phi, psi, hp.tie_rod_outer),
+        tie_rod_inner=inner, arm_angle=phi)
+
+
+def solve_strut_pose_scalar(hp: StrutHardPoints, travel: float, rack: float,
+                            guess: np.ndarray | None = None) -> dict[str, np.ndarray]:
+    """One pose by a general least-squares solve: the reference for tests and the benchmark.
+
+    Independent of the vectorised path: unknowns are the arm angle phi [rad] and a rotation
+    vector r [rad] of the upright (scipy Rotation); residuals: upright strut direction parallel
+    to S - L (cross product), tie-rod length, wheel-centre height. ``guess`` = [phi, rx, ry, rz]
+    (e.g. a neighbouring solution). Returns the pose's points and ``"x"`` (the solution vector).
+    Raises UnreachablePoseError when the residual stays above 1e-9.
+    """
+    from scipy.optimize import least_squares
+    from scipy.spatial.transform import Rotation
+
+    frame = _frame(hp)
+    inner = hp.tie_rod_inner + np.array([0.0, rack, 0.0])
+    z_target = hp.wheel_centre[2] + travel
+
+    def pose(x):
+        lbj = frame.pivot_point + rotate(frame.arm_radius, frame.pivot_axis, np.array(x[0]))
+        rot = Rotation.from_rotvec(x[1:4])
+        return lbj, rot
+
+    def residual(x):
+        lbj, rot = pose(x)
+        axis = rot.apply(np.array(frame.k0))
+        tro = lbj + rot.apply(np.array(hp.tie_rod_outer - hp.lower_ball_joint))
+        wc = lbj + rot.apply(np.array(hp.wheel_centre - hp.lower_ball_joint))
+        return np.concatenate([
+            np.cross(axis, unit(hp.strut_top - lbj)),
+            [np.linalg.norm(tro - inner) - frame.tie_rod_length, wc[2] - z_target]])
+
+    x0 = np.zeros(4) if guess is None else np.asarray(guess, dtype=float)
+    sol = least_squares(residual, x0, method="lm", xtol=1e-15, ftol=1e-15, gtol=1e-15)
+    if np.max(np.abs(residual(sol.x))) > 1e-9:
+        raise UnreachablePoseError("scalar", travel * 1e3, rack * 1e3, "no solution found")
+    lbj, rot = pose(sol.x)
+    wc = lbj + rot.apply(np.array(hp.wheel_centre - hp.lower_ball_joint))
+    spindle = rot.apply(np.array(hp.spindle_axis))
+    return {"wheel_centre": wc, "spindle_axis": spindle, "lower_ball_joint": lbj,
+            "outboard_joint_centre": wc - hp.outboard_joint_offset * spindle,
+            "tie_rod_outer": lbj + rot.apply(np.array(hp.tie_rod_outer - hp.lower_ball_joint)),
+            "steering_axis": unit(hp.strut_top - lbj), "x": sol.x}

@@ -1,0 +1,199 @@
+"""Shaft vibration: first bending critical speed (whirl) and torsional natural frequency.
+
+SI throughout: lengths [m], E [Pa], EI [N*m^2], mass per length [kg/m], masses [kg],
+angular frequencies [rad/s], torsional stiffness [N*m/rad], inertias [kg*m^2].
+
+Whirl model: Euler-Bernoulli beam, Hermite cubic elements with consistent mass matrices
+(standard FE beam element, e.g. R. D. Cook et al., *Concepts and Applications of Finite Element
+Analysis*, 4th ed. (2002), §16.3, key ``fe_hermite_beam``), point masses on translational
+degrees of freedom, pinned supports (lateral deflection zero, rotation free) at given positions,
+generalised symmetric eigenproblem solved with ``scipy.linalg.eigh``. Gyroscopic effects and
+shear deformation are neglected (slender halfshafts).
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+from dataclasses import dataclass
+
+import numpy as np
+
+#: beta_1 L of the first bending mode of a uniform Euler-Bernoulli beam (Blevins Table 8-1).
+BETA1_L = {
+    "pinned-pinned": math.pi,
+    "fixed-fixed": 4.730040745,
+    "fixed-pinned": 3.926602312,
+    "fixed-free": 1.875104069,
+    "free-free": 4.730040745,
+}
+
+
+@dataclass(frozen=True)
+class BeamSpan:
+    """A uniform piece of a beam: length [m], bending stiffness EI [N*m^2], mass/length [kg/m]."""
+
+    length: float
+    bending_stiffness: float
+    mass_per_length: float
+
+
+def uniform_beam_frequency(length: float, bending_stiffness: float, mass_per_length: float,
+                           ends: str = "pinned-pinned") -> float:
+    """First bending natural frequency of a uniform beam, omega = (beta L)^2 / L^2 sqrt(EI/(rho A)).
+
+    Parameters: length L [m], EI [N*m^2], rho A [kg/m], ends one of BETA1_L. Returns [rad/s].
+    Source: R. D. Blevins, *Formulas for Natural Frequency and Mode Shape* (1979), Table 8-1
+    (from memory); key ``blevins_t8_1``.
+
+    >>> EI = 207e9 * math.pi * 0.025**4 / 64; mA = 7850 * math.pi * 0.025**2 / 4
+    >>> round(uniform_beam_frequency(0.7, EI, mA), 1)          # notes §7 [C]
+    646.4
+    """
+    if ends not in BETA1_L:
+        raise ValueError(f"ends must be one of {sorted(BETA1_L)}")
+    return BETA1_L[ends] ** 2 / length**2 * math.sqrt(bending_stiffness / mass_per_length)
+
+
+def _mesh(spans: Sequence[BeamSpan], stations: Sequence[float], per_span: int):
+    """Node positions and per-element EI, rho A; nodes at span ends, stations, subdivisions."""
+    ends = np.concatenate([[0.0], np.cumsum([s.length for s in spans])])
+    pts = [np.linspace(ends[i], ends[i + 1], per_span + 1) for i in range(len(spans))]
+    x = np.unique(np.round(np.concatenate(pts + [np.asarray(stations, float)]), 12))
+    if x[0] < -1e-12 or x[-1] > ends[-1] + 1e-9:
+        raise ValueError("a mass or support lies outside the shaft")
+    mid = 0.5 * (x[:-1] + x[1:])
+    idx = np.clip(np.searchsorted(ends, mid) - 1, 0, len(spans) - 1)
+    ei = np.array([s.bending_stiffness for s in spans])[idx]
+    ma = np.array([s.mass_per_length for s in spans])[idx]
+    return x, ei, ma
+
+
+def _assemble(x: np.ndarray, ei: np.ndarray, ma: np.ndarray):
+    """Global stiffness and consistent mass of Hermite beam elements (dofs w, theta per node)."""
+    h = np.diff(x)
+    k_unit = np.array([[12, 6, -12, 6], [6, 4, -6, 2], [-12, -6, 12, -6], [6, 2, -6, 4]], float)
+    m_unit = np.array([[156, 22, 54, -13], [22, 4, 13, -3], [54, 13, 156, -22],
+                       [-13, -3, -22, 4]], float)
+    rot = np.array([0.0, 1.0, 0.0, 1.0])  # each rotation dof carries one power of h
+    hp = rot[:, None] + rot[None, :]  # h exponent: w-w 0, w-theta 1, theta-theta 2
+    ke = (ei / h**3)[:, None, None] * k_unit * h[:, None, None] ** hp
+    me = (ma * h / 420.0)[:, None, None] * m_unit * h[:, None, None] ** hp
+    n = 2 * len(x)
+    dofs = 2 * np.arange(len(h))[:, None] + np.arange(4)[None, :]
+    rows = np.repeat(dofs, 4, axis=1)
+    cols = np.tile(dofs, (1, 4))
+    K = np.zeros((n, n))
+    M = np.zeros((n, n))
+    np.add.at(K, (rows, cols), ke.reshape(len(h), 16))
+    np.add.at(M, (rows, cols), me.reshape(len(h), 16))
+    return K, M
+
+
+def _model(spans, point_masses, supports, per_span):
+    """Reduced K, M after pinned supports, plus the free-dof index of each point mass."""
+    total = sum(s.length for s in spans)
+    supports = (0.0, total) if supports is None else tuple(supports)
+    masses = [(float(p), float(m)) for p, m in point_masses]
+    if any(m < 0 for _, m in masses):
+        raise ValueError("point masses must be >= 0")
+    x, ei, ma = _mesh(spans, [p for p, _ in masses] + list(supports), per_span)
+    K, M = _assemble(x, ei, ma)
+    node = {round(p, 12): i for i, p in enumerate(np.round(x, 12))}
+    mass_dofs = [2 * node[round(p, 12)] for p, _ in masses]
+    for dof, (_, m) in zip(mass_dofs, masses, strict=True):
+        M[dof, dof] += m
+    fixed = {2 * node[round(float(s), 12)] for s in supports}
+    free = np.array([i for i in range(K.shape[0]) if i not in fixed])
+    pos = {d: i for i, d in enumerate(free)}
+    return K[np.ix_(free, free)], M[np.ix_(free, free)], [pos.get(d) for d in mass_dofs]
+
+
+def first_critical_speed(spans: Sequence[BeamSpan],
+                         point_masses: Sequence[tuple[float, float]] = (),
+                         supports: Sequence[float] | None = None, per_span: int = 20) -> float:
+    """First bending critical speed of a stepped beam on pinned supports [rad/s] (FE).
+
+    Parameters: spans, the beam's uniform pieces from one end; point_masses (x [m] from the
+    first span's start, mass [kg]); supports positions x [m] of the pinned supports (default the
+    two ends); per_span elements per span (more are added at mass and support stations).
+    Source: Hermite beam FE (key ``fe_hermite_beam``), validated against Blevins Table 8-1.
+    """
+    from scipy.linalg import eigh
+
+    K, M, _ = _model(spans, point_masses, supports, per_span)
+    w2 = eigh(K, M, eigvals_only=True, subset_by_index=[0, 0])[0]
+    return math.sqrt(max(w2, 0.0))
+
+
+def dunkerley_critical_speed(spans: Sequence[BeamSpan],
+                             point_masses: Sequence[tuple[float, float]],
+                             supports: Sequence[float] | None = None, per_span: int = 20) -> float:
+    """Dunkerley lower bound of the first critical speed [rad/s].
+
+    1/omega^2 = 1/omega_shaft^2 + sum m_i a_ii, with omega_shaft the FE value of the bare shaft
+    and a_ii the static influence coefficient (deflection per unit force) at mass i from the FE
+    flexibility of the massless beam. Source: Shigley 10th ed. eq. 7-32 (Dunkerley); key
+    ``shigley10_dunkerley``.
+    """
+    from scipy.linalg import cho_factor, cho_solve
+
+    bare = first_critical_speed(spans, (), supports, per_span)
+    K, _, idx = _model(spans, point_masses, supports, per_span)
+    cf = cho_factor(K)
+    inv = 1.0 / bare**2
+    for (_, m), i in zip(point_masses, idx, strict=True):
+        if i is None:  # a mass on a support adds nothing
+            continue
+        e = np.zeros(K.shape[0])
+        e[i] = 1.0
+        inv += m * cho_solve(cf, e)[i]
+    return 1.0 / math.sqrt(inv)
+
+
+def spans_from_segments(segments, elastic_modulus: float, density: float) -> list[BeamSpan]:
+    """Beam spans of a stepped shaft's segments (:class:`shaftcheck.methods.sections.Segment`).
+
+    Bending uses the segment's stiffness-equivalent round (a spline's d_eq, project rule) for I
+    and its metal area for mass: I = pi (D^4 - d_i^4)/64, rho A. E [Pa], density [kg/m^3].
+    """
+    out = []
+    for s in segments:
+        i = math.pi * (s.torsion_diameter**4 - s.inner_diameter**4) / 64.0
+        out.append(BeamSpan(s.length, elastic_modulus * i, density * s.area))
+    return out
+
+
+def torsional_natural_frequency(stiffness: float, inertia: float,
+                                other_inertia: float = math.inf) -> float:
+    """Natural frequency of two inertias on a massless torsional spring [rad/s].
+
+    omega = sqrt(k (J1 + J2)/(J1 J2)); J2 = inf (one end held) gives sqrt(k/J1).
+    Parameters: stiffness k [N*m/rad], inertia J1 [kg*m^2], other_inertia J2 [kg*m^2].
+    Source: W. T. Thomson, *Theory of Vibration with Applications* (two-disc torsional system,
+    from memory); key ``thomson_torsional``.
+
+    >>> round(torsional_natural_frequency(5068.5, 1.0, 0.2) / (2 * math.pi), 3)  # notes §8
+    27.755
+    """
+    if stiffness <= 0 or inertia <= 0 or other_inertia <= 0:
+        raise ValueError("stiffness and inertias must be positive")
+    if math.isinf(other_inertia):
+        return math.sqrt(stiffness / inertia)
+    return math.sqrt(stiffness * (inertia + other_inertia) / (inertia * other_inertia))
+
+
+def shock_peak_torque_ratio(stiff: float, soft: float) -> float:
+    """Peak-torque ratio of the stiffer to the softer side under equal shock energy.
+
+    T_peak = sqrt(2 U k), hence T_1/T_2 = sqrt(k_1/k_2). Stiffnesses [N*m/rad].
+    Source: reference notes §9, energy argument (derivation, common practice); key
+    ``notes_shock_energy``.
+
+    >>> round(shock_peak_torque_ratio(8688.9, 4678.6), 3)   # notes §9 [C]
+    1.363
+    """
+    if stiff <= 0 or soft <= 0:
+        raise ValueError("stiffnesses must be positive")
+    k1, k2 = max(stiff, soft), min(stiff, soft)
+    return math.sqrt(k1 / k2)

@@ -1,0 +1,1 @@
+"""The design's data model: frozen dataclasses in SI, criteria, materials, citations."""

@@ -1,0 +1,1 @@
+"""Presentation at the edge: console tables, atomic file writing, cautions."""

@@ -1,0 +1,1 @@
+"""Studies of a whole design: each turns formulas into typed results and checks."""

@@ -1,0 +1,116 @@
+"""Result records: one :class:`Check` per acceptance check and the :class:`Result` of a design.
+
+Values in checks are in the trade units named by ``unit`` (they are what the engineer reads);
+``Result.to_dict()`` returns plain JSON types only.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from typing import Any
+
+
+@dataclass(frozen=True)
+class Check:
+    """One acceptance check.
+
+    sense "max": passes when value <= limit; "min": passes when value >= limit.
+    location names the governing place (segment index and kind, a pose, "design position").
+    reference is a key of :mod:`shaftcheck.model.references`.
+    """
+
+    id: str
+    title: str
+    side: str  # "left" | "right" | "both"
+    value: float
+    limit: float
+    unit: str
+    sense: str  # "max" | "min"
+    location: str = ""
+    reference: str = "practice"
+    note: str = ""
+
+    @property
+    def passed(self) -> bool:
+        if math.isnan(self.value):
+            return False
+        return self.value <= self.limit if self.sense == "max" else self.value >= self.limit
+
+    @property
+    def margin(self) -> float:
+        """Margin as a fraction of the limit: positive = met with room, negative = failed."""
+        if self.limit == 0 or math.isnan(self.value) or math.isinf(self.value):
+            return math.inf if self.passed else -math.inf
+        if self.sense == "max":
+            return (self.limit - self.value) / abs(self.limit)
+        return (self.value - self.limit) / abs(self.limit)
+
+    def to_dict(self) -> dict:
+        return {
+            "id": self.id,
+            "title": self.title,
+            "side": self.side,
+            "value": jsonable(self.value),
+            "limit": jsonable(self.limit),
+            "unit": self.unit,
+            "sense": self.sense,
+            "passed": self.passed,
+            "margin": jsonable(self.margin),
+            "location": self.location,
+            "reference": self.reference,
+            "note": self.note,
+        }
+
+
+@dataclass
+class Result:
+    """Everything computed for a design. ``sections`` holds topic dicts (plain JSON types)."""
+
+    design: Any
+    sides: dict
+    stiffness_mismatch_pct: float
+    checks: list = field(default_factory=list)
+    sections: dict = field(default_factory=dict)
+    notices: list = field(default_factory=list)
+
+    @property
+    def verdict(self) -> str:
+        return "pass" if all(c.passed for c in self.checks) else "fail"
+
+    @property
+    def failed(self) -> list:
+        return [c for c in self.checks if not c.passed]
+
+    def to_dict(self) -> dict:
+        from shaftcheck import __version__
+
+        d = self.design
+        out = {
+            "shaftcheck_version": __version__,
+            "design": {"path": d.path, "sha256": d.sha256, "name": d.project.name,
+                       "revision": d.project.revision, "date": d.project.date,
+                       "author": d.project.author},
+            "verdict": self.verdict,
+            "checks": [c.to_dict() for c in self.checks],
+            "sides": self.sides,
+            "stiffness_mismatch_pct": self.stiffness_mismatch_pct,
+            "notices": list(self.notices),
+        }
+        out.update(self.sections)
+        return jsonable(out)
+
+
+def jsonable(x: Any) -> Any:
+    """Plain JSON types: numpy scalars/arrays to Python, inf/nan to None."""
+    if isinstance(x, dict):
+        return {str(k): jsonable(v) for k, v in x.items()}
+    if isinstance(x, (list, tuple)):
+        return [jsonable(v) for v in x]
+    if hasattr(x, "tolist"):
+        return jsonable(x.tolist())
+    if isinstance(x, bool) or x is None or isinstance(x, (str, int)):
+        return x
+    if isinstance(x, float):
+        return x if math.isfinite(x) else None
+    return x
