@@ -3,7 +3,8 @@
 Calls :mod:`~shaftcheck.methods.intermediate_shaft`; returns a plain dict (trade units) with
 the checks under ``_checks``. Duty-cycle convention (stated in the output): each spectrum bin
 runs at the radial load of its maximum torque, for a share of the revolutions proportional to
-its cycles; hours are given at the maximum vehicle speed (the shortest time), distance is speed-independent.
+its cycles; hours are given at the maximum vehicle speed (the shortest time), distance is
+speed-independent.
 """
 
 from __future__ import annotations
