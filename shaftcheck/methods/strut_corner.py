@@ -161,6 +161,20 @@ class CornerPoses:
         up = unit(z - np.sum(z * b, axis=-1, keepdims=True) * b)
         return self.wheel_centre - float(loaded_radius) * up
 
+    def take(self, travel_index, rack_index) -> CornerPoses:
+        """The sub-grid at the given travel (nt',) and rack (nr',) indices."""
+        ti = np.asarray(travel_index, dtype=int)
+        rj = np.asarray(rack_index, dtype=int)
+        grid = np.ix_(ti, rj)
+
+        def sub(a):
+            return None if a is None else a[grid]
+
+        return CornerPoses(self.travel[ti], self.rack[rj], sub(self.wheel_centre),
+                           sub(self.spindle_axis), sub(self.outboard_joint_centre),
+                           sub(self.lower_ball_joint), sub(self.steering_axis),
+                           sub(self.tie_rod_outer), sub(self.tie_rod_inner), sub(self.arm_angle))
+
     def at(self, i: int, j: int) -> dict[str, np.ndarray]:
         """The pose at travel index i and rack index j as a dict of 3-vectors."""
         names = ("wheel_centre", "spindle_axis", "outboard_joint_centre", "lower_ball_joint",

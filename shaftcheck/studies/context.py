@@ -1,0 +1,213 @@
+"""The shared context of one evaluation: what several studies need, computed once.
+
+Every study has the same contract, ``run(design, ctx) -> (StudyResult, list[Check])``. The
+context holds the design and computes on first use, then caches:
+
+* the load cases per side [N*m] (:func:`shaftcheck.methods.loads.load_cases`);
+* the torsional stiffness of each side and the left/right mismatch [%];
+* the travel x rack grids of every study, and the corner poses of each side solved **once** on
+  the union of those grids (:meth:`Context.poses` slices them for each study);
+* the intermediate-shaft lengths (given, or placed by the bearing study);
+* the joint geometry of both sides at the design position.
+
+All values are SI (m, rad, N*m, N*m/rad). ``corner_solves`` counts the corner solves, so a test
+can hold the "one solve per side" promise.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from functools import cached_property
+
+import numpy as np
+
+SIDES = ("left", "right")
+
+#: grid sizes of the studies (points over the travel range and over the rack range); the design
+#: position 0 is always added. Resolution choices of this project, not from a source.
+GEOMETRY_TRAVEL_POINTS = 35
+GEOMETRY_RACK_POINTS = 15
+TORQUE_STEER_TRAVEL_POINTS = 41
+TORQUE_STEER_RACK_POINTS = 15
+ROLL_POINTS = 13
+
+
+def grid(lo: float, hi: float, n: int) -> np.ndarray:
+    """n points from lo to hi [m], with the design position 0 always included."""
+    g = np.linspace(lo, hi, max(int(n), 2))
+    if lo <= 0.0 <= hi:
+        g = np.append(g[np.abs(g) > 1e-9 * max(hi - lo, 1e-12)], 0.0)
+    return np.unique(g)
+
+
+@dataclass(frozen=True)
+class DesignGeometry:
+    """Joint geometry of one side at the design position (SI).
+
+    inboard_centre I, outboard_centre O, wheel_centre W [m]; output_axis d, spindle_axis b,
+    shaft_axis (unit); inboard and outboard joint angles [rad]; joint-centre distance [m].
+    """
+
+    inboard_centre: np.ndarray
+    output_axis: np.ndarray
+    outboard_centre: np.ndarray
+    wheel_centre: np.ndarray
+    spindle_axis: np.ndarray
+    inboard_angle: float
+    outboard_angle: float
+    length: float
+    shaft_axis: np.ndarray
+
+
+class Context:
+    """Shared, lazily computed inputs of the studies of one design (see module docstring)."""
+
+    def __init__(self, design, *, travel_points: int = GEOMETRY_TRAVEL_POINTS,
+                 rack_points: int = GEOMETRY_RACK_POINTS):
+        self.design = design
+        self.travel_points = int(travel_points)
+        self.rack_points = int(rack_points)
+        self.corner_solves = 0
+        self._poses: dict = {}
+
+    # --- loads and stiffness ------------------------------------------------------------------
+    @cached_property
+    def cases(self) -> dict[str, float]:
+        """Named torque per side [N*m]: design, engine_abuse, wheel_slip (, bias_split)."""
+        from shaftcheck.methods.loads import load_cases
+
+        return load_cases(self.design)
+
+    @property
+    def design_torque(self) -> float:
+        """Design torque per side [N*m]."""
+        return self.cases["design"]
+
+    @cached_property
+    def stiffness(self) -> dict:
+        """side -> SideStiffness (bar alone, whole side, compliance shares) [N*m/rad]."""
+        from shaftcheck.methods.side_stiffness import side_stiffness
+
+        return {s: side_stiffness(self.design.side(s)) for s in SIDES}
+
+    @cached_property
+    def mismatch_pct(self) -> float:
+        """100 |k_L - k_R| / mean(k_L, k_R) of the whole sides [%]."""
+        from shaftcheck.methods.side_stiffness import mismatch_pct
+
+        return mismatch_pct(self.stiffness["left"].whole, self.stiffness["right"].whole)
+
+    # --- grids ----------------------------------------------------------------------------------
+    @cached_property
+    def travel(self) -> np.ndarray:
+        """Wheel-travel grid of the geometry study [m]."""
+        return grid(*self.design.suspension.travel, self.travel_points)
+
+    @cached_property
+    def rack(self) -> np.ndarray:
+        """Rack-travel grid of the geometry study [m]."""
+        return grid(*self.design.suspension.rack_travel, self.rack_points)
+
+    @cached_property
+    def roll(self) -> np.ndarray:
+        """Roll offsets [m] (left wheel +r, right wheel -r), limited to the travel range."""
+        s = self.design.suspension
+        r = min(self.design.torque_steer.roll_travel, -s.travel[0], s.travel[1])
+        return np.linspace(-r, r, ROLL_POINTS)
+
+    @cached_property
+    def torque_steer_travel(self) -> np.ndarray:
+        """Travel grid of the torque-steer study [m]: its own grid plus both roll offsets."""
+        g = grid(*self.design.suspension.travel, TORQUE_STEER_TRAVEL_POINTS)
+        return np.unique(np.concatenate([g, self.roll, -self.roll]))
+
+    @cached_property
+    def torque_steer_rack(self) -> np.ndarray:
+        """Rack grid of the torque-steer study [m]."""
+        return grid(*self.design.suspension.rack_travel, TORQUE_STEER_RACK_POINTS)
+
+    @cached_property
+    def _union(self) -> tuple[np.ndarray, np.ndarray]:
+        travel = np.unique(np.concatenate([self.travel, self.torque_steer_travel]))
+        rack = np.unique(np.concatenate([self.rack, self.torque_steer_rack]))
+        return travel, rack
+
+    # --- corner poses ---------------------------------------------------------------------------
+    def _solve(self, side: str, travel: np.ndarray, rack: np.ndarray):
+        from shaftcheck.methods.halfshaft_geometry import StrutHardPoints, solve_strut
+
+        self.corner_solves += 1
+        s = self.design.suspension
+        c = s.left if side == "left" else s.right
+        if s.model == "strut":
+            names = ("lower_arm_front", "lower_arm_rear", "lower_ball_joint", "strut_top",
+                     "tie_rod_inner", "tie_rod_outer", "wheel_centre", "spindle_axis")
+            hp = StrutHardPoints(*(np.asarray(getattr(c, n)) for n in names),
+                                 outboard_joint_offset=c.outboard_joint_offset)
+            return solve_strut(hp, travel, rack, side)
+        table = s.left_table if side == "left" else s.right_table
+        return table.poses(travel, rack, c.outboard_joint_offset, side)
+
+    def poses(self, side: str, travel=None, rack=None):
+        """CornerPoses of one side over travel x rack [m] (default: the geometry grid).
+
+        Every grid a study of this context uses is part of one union grid, solved once per
+        side; other values (a caller's own grid) are solved on their own and counted.
+        """
+        travel = self.travel if travel is None else np.atleast_1d(np.asarray(travel, float))
+        rack = self.rack if rack is None else np.atleast_1d(np.asarray(rack, float))
+        ut, ur = self._union
+        ti, rj = np.searchsorted(ut, travel), np.searchsorted(ur, rack)
+        inside = (np.all(ti < ut.size) and np.all(rj < ur.size)
+                  and np.array_equal(ut[np.minimum(ti, ut.size - 1)], travel)
+                  and np.array_equal(ur[np.minimum(rj, ur.size - 1)], rack))
+        if not inside:
+            return self._solve(side, travel, rack)
+        if side not in self._poses:
+            self._poses[side] = self._solve(side, ut, ur)
+        return self._poses[side].take(ti, rj)
+
+    # --- intermediate shaft and design geometry -------------------------------------------------
+    @cached_property
+    def bearings(self) -> dict:
+        """side -> BearingResult for each side with an intermediate shaft (placed when its
+        length is not given)."""
+        from shaftcheck.studies.bearing import place
+
+        return {s: place(self, s) for s in SIDES if self.design.side(s).intermediate is not None}
+
+    @cached_property
+    def intermediate_lengths(self) -> dict[str, float]:
+        """Intermediate-shaft length per side [m] (only sides that have one)."""
+        return {s: b.length for s, b in self.bearings.items()}
+
+    def inboard_centre(self, side: str) -> np.ndarray:
+        """Inboard joint centre at design [m] (from the intermediate length where there is one)."""
+        return np.asarray(self.design.side(side).inboard_centre_at(
+            self.intermediate_lengths.get(side)))
+
+    @cached_property
+    def design_geometry(self) -> dict[str, DesignGeometry]:
+        """side -> DesignGeometry at the design position.
+
+        Outboard joint centre O = W - offset b; inboard angle = angle(d, O - I); outboard angle =
+        angle(O - I, b), each between 3-D unit vectors (docs/methods.md, joint geometry).
+        """
+        from shaftcheck.methods.halfshaft_geometry import joint_geometry
+
+        out = {}
+        for name in SIDES:
+            side = self.design.side(name)
+            c = self.design.suspension.left if name == "left" else self.design.suspension.right
+            if self.design.suspension.model == "strut":
+                W, b = np.asarray(c.wheel_centre), np.asarray(c.spindle_axis)
+            else:
+                p = self.poses(name, [0.0], [0.0])
+                W, b = p.wheel_centre[0, 0], p.spindle_axis[0, 0]
+            O = W - c.outboard_joint_offset * b
+            I = self.inboard_centre(name)
+            d = np.asarray(side.output_axis)
+            bi, bo, L, axis = joint_geometry(I, d, O, b)
+            out[name] = DesignGeometry(I, d, O, W, b, float(bi), float(bo), float(L),
+                                       np.asarray(axis))
+        return out
