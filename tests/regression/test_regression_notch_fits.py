@@ -1,14 +1,21 @@
-"""Torsional stress-concentration fits against Peterson's charts (Pilkey & Pilkey).
+"""Torsional stress-concentration curve fits (shoulder fillet, U-groove): regression values.
 
-Source: W. D. Pilkey & D. F. Pilkey, *Peterson's Stress Concentration Factors*, 3rd ed. (2008),
-Chart 3.12, p. 167 (shoulder fillet in torsion) and the ch. 2 U-groove torsion chart, through the
-check values of the project's reference notes (/work/shared/reference/sections_and_strength.md
-§3.1 and §3.2, tagged [C]: the published fit evaluated for the notes, regression values) and
-student chart readings of Shigley 10th ed. Figs. A-15-8 / A-15-15 quoted there ([S: open code]).
-Tolerances: [C] values are printed to 4 decimals -> 6e-5 absolute (half a unit of the last
-digit plus float noise); chart readings -> 5 % (notes §3.1: fits reproduce charts within a few
-percent) or 7 % where the notes say so (§3.2).
+REGRESSION VALUES, not published ones: every check value below was computed with the
+formula named beside it for the inputs shown (numpy/scipy, double precision) when the
+method was written, and pins today's behaviour. They are not evidence that the method is
+right; published check values are in tests/validation/.
+
+Formulas: the Peterson/Pilkey polynomial fits K_ts = C1 + C2 (2t/D) + C3 (2t/D)^2 +
+C4 (2t/D)^3 coded in shaftcheck.methods.stress_concentration (W. D. Pilkey & D. F. Pilkey,
+Peterson's Stress Concentration Factors, 3rd ed. (2008), Chart 3.12 for the shoulder; the U-groove
+chart of chapter 2), evaluated for the inputs here. The coefficients were taken from open-source
+transcriptions and are not verified against the book (what would verify them: Pilkey 3rd ed.,
+Chart 3.12 p. 167 and the torsion U-groove chart). Student chart readings quoted below are
+unverified readings, not published values. Fit values: 4 decimals, tolerance 6e-5; readings 5 %
+(7 % for the U-groove reading). Published chart values are in
+tests/validation/test_published_stress_concentration.py.
 """
+
 
 import math
 
@@ -16,7 +23,7 @@ import pytest
 
 from shaftcheck.methods.stress_concentration import shoulder_fillet_kts, u_groove_kts
 
-# (D/d, r/d, K_ts of the fit) — notes §3.1 table [C], d = 25 mm.
+# (D/d, r/d, K_ts of the fit) — regression value, d = 25 mm.
 SHOULDER_FIT = [
     (1.5, 0.10, 1.4126),
     (1.2, 0.10, 1.3574),
@@ -36,7 +43,7 @@ def test_shoulder_fit_values(D_d, r_d, expected):
     assert k.valid
 
 
-# (D/d, r/d, student reading of Shigley Fig. A-15-8) — notes §3.1 [S: open-source code].
+# (D/d, r/d, unverified student reading of Shigley Fig. A-15-8): not a published value.
 @pytest.mark.parametrize("D_d, r_d, reading", [(1.2, 0.10, 1.35), (1.265, 0.10, 1.4),
                                                (1.4, 0.08, 1.45)])
 def test_shoulder_fit_against_chart_readings(D_d, r_d, reading):
@@ -45,7 +52,7 @@ def test_shoulder_fit_against_chart_readings(D_d, r_d, reading):
 
 
 def test_shoulder_c4_sign_typo_is_not_ours():
-    """Notes §3.1 caution [C]: C4 = -1.061 + 0.171 sqrt(x) - 0.086 x (a published typo) gives
+    """Transcription check: C4 = -1.061 + 0.171 sqrt(x) - 0.086 x (a published typo) gives
     1.3967 at D/d 1.5, r/d 0.1; the correct coefficient gives 1.4126."""
     D, d, r = 37.5e-3, 25e-3, 2.5e-3
     t = (D - d) / 2
@@ -60,13 +67,13 @@ def test_shoulder_c4_sign_typo_is_not_ours():
 
 
 def test_shoulder_out_of_range_flagged():
-    # notes §3.1 table: D/d 1.2, r/d 0.02 (t/r = 5) -> 1.96, out of range; chart about 2.0-2.2.
+    # regression value: D/d 1.2, r/d 0.02 (t/r = 5) -> 1.96, out of range; chart about 2.0-2.2.
     k = shoulder_fillet_kts(1.2, 1.0, 0.02)
     assert k.value == pytest.approx(1.96, abs=0.005)
     assert not k.valid and "outside" in k.note
 
 
-# U-groove: (D, d, r) in mm and K_ts — notes §3.2 check values [C].
+# U-groove: (D, d, r) in mm and K_ts of the fit — regression values.
 U_GROOVE = [
     (25.0, 23.8, 0.6, 1.8404),  # x = 1
     (30.0, 28.0, 0.5, 2.1371),  # x = 2
@@ -83,13 +90,13 @@ def test_u_groove_values(D, d, r, expected):
 
 
 def test_u_groove_against_chart_reading():
-    # notes §3.2: student reading of Shigley Fig. A-15-15 for 1.1/0.9/0.1 in gave about 1.4;
-    # the notes allow about 7 % between the fit and that reading.
+    # unverified student reading of Shigley Fig. A-15-15 for 1.1/0.9/0.1 in: about 1.4;
+    # about 7 % is allowed between the fit and that reading.
     assert u_groove_kts(1.1, 0.9, 0.1).value == pytest.approx(1.4, rel=0.075)
 
 
 def test_u_groove_semicircular_coefficients():
-    # notes §3.2: x = 1 gives C1..C4 = 2, -3.555, 4.898, -2.365 (exact arithmetic of the fit).
+    # regression value: x = 1 gives C1..C4 = 2, -3.555, 4.898, -2.365 (exact arithmetic of the fit).
     D, r = 40.0, 1.0
     d = D - 2 * r
     y = 2 * r / D
@@ -98,7 +105,7 @@ def test_u_groove_semicircular_coefficients():
 
 
 def test_u_groove_branches_meet_at_x_2():
-    # notes §3.2 [C]: the two branches agree within 0.6 % at x = 2 (2.2021 vs 2.2149 at y = 0.05).
+    # regression value: the two branches agree within 0.6 % at x = 2 (2.2021 vs 2.2149 at y = 0.05).
     from shaftcheck.methods.stress_concentration import _u_groove_coefficients
 
     y = 0.05
@@ -113,8 +120,8 @@ def test_u_groove_branches_meet_at_x_2():
 
 @pytest.mark.parametrize("x, expected", [(1.0, 0.98), (4.0, 0.96)])
 def test_u_groove_sign_check_at_full_depth(x, expected):
-    # notes §3.2: at y = 1 the settled signs give about 0.98 (x = 1) and 0.96 (x = 4); with the
-    # wrong C4 = +1.056 the limit would be 3.08. Tolerance 0.01: the notes print 2 decimals.
+    # regression value: at y = 1 the settled signs give about 0.98 (x = 1) and 0.96 (x = 4);
+    # with the wrong C4 = +1.056 the limit would be 3.08. Tolerance 0.01: 2 decimals.
     from shaftcheck.methods.stress_concentration import _u_groove_coefficients
 
     assert sum(_u_groove_coefficients(x)) == pytest.approx(expected, abs=0.01)

@@ -1,14 +1,20 @@
-"""DIN 743-2 form factors and the involute-spline notch factor.
+"""DIN 743-2 form factors and the involute-spline notch factor: regression values.
 
-Source: DIN 743-2:2012 (Tragfähigkeitsberechnung von Wellen und Achsen, Teil 2), form factors of
-shoulders and round grooves and the notch factors of splined shafts, **as transcribed in an
-open-source student implementation** quoted in the project's reference notes
-(/work/shared/reference/sections_and_strength.md §2.1 and §3.1, tagged [S: open-source student
-code; verify against the standard]). Check values of α_τ are the notes' [C] values (4 decimals,
-tolerance 6e-5). The comparison with Pilkey chart 3.12 / the U-groove fit is the notes'
-two-method test: the methods agree within about 3 % (we allow 3.5 %: the largest gap in the
-notes' table is 3.2 %).
+REGRESSION VALUES, not published ones: every check value below was computed with the
+formula named beside it for the inputs shown (numpy/scipy, double precision) when the
+method was written, and pins today's behaviour. They are not evidence that the method is
+right; published check values are in tests/validation/.
+
+Formulas: DIN 743-2:2012 form factor alpha_tau = 1 + 1/sqrt(A r/t + 2B (r/d)(1 + 2r/d)^2 +
+C (r/t)^z d/D) (torsion, shoulder A = 3.4, B = 19, C = 1, z = 2; round groove A = 0.7, B = 10.3,
+C = 0), K3(d) = 1 - 0.2 lg(beta) lg(d/7.5)/lg 20, and the involute-spline beta_tau =
+1 + 0.75 (exp(4.2e-7 sigma_B^2) - 1) at d_BK = 29 mm; these coefficients are taken from an
+open-source transcription of the standard and are NOT verified against DIN 743-2 itself (what would
+verify them: DIN 743-2:2012, section 4 and Table 3 for splines). alpha_tau values: 4 decimals,
+tolerance 6e-5. The comparison with the Peterson fits is a two-method consistency check: the
+methods agree within about 3 % (3.5 % allowed; the largest gap in the table is 3.2 %).
 """
+
 
 import math
 
@@ -22,7 +28,7 @@ from shaftcheck.methods.stress_concentration import (
     u_groove_kts,
 )
 
-# (D, d, r mm, feature, DIN 743 α_τ, Peterson K_ts) — notes §3.1 table [C].
+# (D, d, r mm, feature, DIN 743 α_τ, Peterson K_ts) — regression value.
 TABLE = [
     (37.5, 25.0, 2.5, "shoulder", 1.3796, 1.4126),
     (30.0, 25.0, 2.5, "shoulder", 1.3210, 1.3574),
@@ -52,7 +58,7 @@ def test_form_factor_rejects_unknown_feature():
 
 
 def test_k3_is_one_below_7_5_mm_and_falls_with_diameter():
-    # notes §2.1: K3 = 1 - 0.2 lg(β) lg(d/7.5)/lg 20 for 7.5 <= d < 150 mm, 1 below 7.5 mm.
+    # regression value: K3 = 1 - 0.2 lg(β) lg(d/7.5)/lg 20 for 7.5 <= d < 150 mm, 1 below 7.5 mm.
     beta = 1.4
     assert din743_k3(7e-3, beta) == 1.0
     assert din743_k3(150e-3, beta) == pytest.approx(1 - 0.2 * math.log10(beta), rel=1e-12)
@@ -61,14 +67,15 @@ def test_k3_is_one_below_7_5_mm_and_falls_with_diameter():
 
 @pytest.mark.parametrize("sigma_b", [600e6, 800e6, 1000e6, 1200e6])
 def test_involute_spline_beta_at_test_diameter(sigma_b):
-    # notes §2.1 [S: student code]: β_τ(d_BK = 29 mm) = 1 + 0.75 (exp(4.2e-7 σ_B²) - 1).
+    # regression value: β_τ(d_BK = 29 mm) = 1 + 0.75 (exp(4.2e-7 σ_B²) - 1).
     sb = sigma_b / 1e6
     expected = 1 + 0.75 * (math.exp(4.2e-7 * sb**2) - 1)
     assert involute_spline_beta_tau(sigma_b, 29e-3).value == pytest.approx(expected, rel=1e-12)
 
 
 def test_involute_spline_beta_scales_with_k3():
-    # notes §2.1: β(d) = β(d_BK) K3(d_BK)/K3(d): smaller roots get a smaller β, larger a larger one.
+    # regression value: β(d) = β(d_BK) K3(d_BK)/K3(d): smaller roots get a smaller β,
+    # larger a larger one.
     b20 = involute_spline_beta_tau(900e6, 20e-3).value
     b29 = involute_spline_beta_tau(900e6, 29e-3).value
     b40 = involute_spline_beta_tau(900e6, 40e-3).value

@@ -1,10 +1,17 @@
-"""Check values of the project reference notes, kinematics_and_torque_steer.md.
+"""Cardan and CV joint kinematics, 3-D halfshaft geometry, bearing life: regression values.
 
-Source: shaftcheck reference notes (shared/reference/kinematics_and_torque_steer.md), sections
-named beside each value with their provenance tag. [DER] values were computed for the notes
-(regression values, not published ones); "standard result [M]" means a textbook result quoted
-from memory there. Tolerance: half a unit of the last digit the notes print, unless stated.
+REGRESSION VALUES, not published ones: every check value below was computed with the
+formula named beside it for the inputs shown (numpy/scipy, double precision) when the
+method was written, and pins today's behaviour. They are not evidence that the method is
+right; published check values are in tests/validation/.
+
+Formulas: Cardan speed ratio w2/w1 = cos b/(1 - sin^2 b cos^2 theta) and the output angle
+tan phi = tan theta / cos b (standard results of mechanism texts, from memory here), the
+bisector-plane CV joint moment, tripod orbit radius, vector geometry of the worked corner below,
+and the basic rating life L10 = (C/P)^p 10^6 revolutions. Tolerance: half a unit of the last
+printed digit, unless stated.
 """
+
 
 from __future__ import annotations
 
@@ -38,19 +45,19 @@ def half_unit(decimals: int) -> float:
     return 0.5 * 10.0**-decimals
 
 
-# --- §1.1 Cardan speed ratio, Form A -----------------------------------------------------------
+# --- Cardan speed ratio, Form A -----------------------------------------------------------
 
 @pytest.mark.parametrize("beta, theta, expected", [
-    (10, 0, 0.984808), (10, 90, 1.015427),  # §1.1 table [DER] (= cos 10, 1/cos 10)
-    (20, 0, 0.939693), (20, 90, 1.064178), (20, 45, 0.998069),  # §1.1 table [DER]
-    (30, 0, 0.866025), (30, 90, 1.154701),  # §1.1 table / §8 row 1 [DER]; cos 30, 1/cos 30
+    (10, 0, 0.984808), (10, 90, 1.015427),  # (= cos 10, 1/cos 10)
+    (20, 0, 0.939693), (20, 90, 1.064178), (20, 45, 0.998069),
+    (30, 0, 0.866025), (30, 90, 1.154701),  # cos 30, 1/cos 30
 ])
 def test_cardan_speed_ratio_table(beta, theta, expected):
     assert cardan_speed_ratio(D(beta), D(theta)) == pytest.approx(expected, abs=half_unit(6))
 
 
 def test_cardan_extremes_at_30_deg_are_cos_and_secant():
-    # standard result [M], notes §1.1: min cos b (theta = 0), max 1/cos b (theta = 90 deg);
+    # standard result (from memory): min cos b (theta = 0), max 1/cos b (theta = 90 deg);
     # extremes over a fine grid, 1e-12 (the grid contains both theta values exactly)
     ratio = cardan_speed_ratio(D(30), np.linspace(0, 2 * np.pi, 3601))
     assert ratio.min() == pytest.approx(math.cos(D(30)), abs=1e-12)
@@ -58,13 +65,13 @@ def test_cardan_extremes_at_30_deg_are_cos_and_secant():
 
 
 def test_cardan_output_angle_20_45():
-    # notes §1.1 table [DER]: beta 20, theta 45 -> phi = 43.2192 deg
+    # regression value: beta 20, theta 45 -> phi = 43.2192 deg
     assert math.degrees(cardan_output_angle(D(20), D(45))) == pytest.approx(
         43.2192, abs=half_unit(4))
 
 
 def test_cardan_fluctuation_and_excess():
-    # notes §1.1 [DER]: peak-to-peak at 30 deg 0.288675; peak excess 6.4 % at 20, 15.5 % at 30;
+    # regression value: peak-to-peak at 30 deg 0.288675; peak excess 6.4 % at 20, 15.5 % at 30;
     # peak-to-peak 12.4 % at 20, 28.9 % at 30
     assert cardan_speed_fluctuation(D(30)) == pytest.approx(0.288675, abs=half_unit(6))
     assert 100 * cardan_peak_excess(D(20)) == pytest.approx(6.4, abs=half_unit(1))
@@ -74,7 +81,7 @@ def test_cardan_fluctuation_and_excess():
 
 @pytest.mark.parametrize("beta, expected", [(10, 0.4386), (20, 1.7817), (30, 4.1172)])
 def test_cardan_max_twist_error(beta, expected):
-    # notes §1.1 table and §8 row 3 [DER]
+    # regression value
     assert math.degrees(cardan_max_twist_error(D(beta))) == pytest.approx(expected,
                                                                           abs=half_unit(4))
     theta = np.linspace(0, np.pi, 200001)  # the closed form is the maximum over a turn
@@ -84,28 +91,28 @@ def test_cardan_max_twist_error(beta, expected):
 
 @pytest.mark.parametrize("beta, peak, at", [(10, 0.030626, 45.9), (20, 0.124966, 48.5)])
 def test_cardan_peak_acceleration(beta, peak, at):
-    # notes §1.1 table [DER]: peak a2/w1^2 and the angle where it occurs (0.1 deg printed)
+    # regression value: peak a2/w1^2 and the angle where it occurs (0.1 deg printed)
     theta = np.radians(np.linspace(0, 90, 90001))
     acc = cardan_output_acceleration(D(beta), theta)
     assert acc.max() == pytest.approx(peak, abs=half_unit(6))
     assert math.degrees(theta[np.argmax(acc)]) == pytest.approx(at, abs=0.05)
 
 
-# --- §1.2 Cardan torque and secondary couples ---------------------------------------------------
+# --- Cardan torque and secondary couples ---------------------------------------------------
 
 @pytest.mark.parametrize("beta, t_min, t_max, couple_in, couple_out", [
     (10, 984.81, 1015.43, 176.33, 173.65),
-    (20, 939.69, 1064.18, 363.97, 342.02),  # also §8 row 4
+    (20, 939.69, 1064.18, 363.97, 342.02),
     (30, 866.03, 1154.70, 577.35, 500.00),
 ])
 def test_cardan_couples_table(beta, t_min, t_max, couple_in, couple_out):
-    # notes §1.2 table [DER], T1 = 1000 N*m
+    # regression value, T1 = 1000 N*m
     c = cardan_couples(1000.0, D(beta))
     got = (c.output_torque_min, c.output_torque_max, c.input_couple_max, c.output_couple_max)
     assert got == pytest.approx((t_min, t_max, couple_in, couple_out), abs=half_unit(2))
 
 
-# --- §1.3 / §1.4 two Cardan joints ------------------------------------------------------------
+# --- two Cardan joints ------------------------------------------------------------
 
 THETA = np.linspace(0, 2 * np.pi, 1441)
 
@@ -117,7 +124,7 @@ def _axes(beta1, beta2):
 
 
 def test_two_joints_in_phase_are_constant_velocity():
-    # notes §1.3 and §8 row 5 [DER]: W and Z, 20/20 deg, forks in phase -> ratio 1 (< 1e-9;
+    # regression value: W and Z, 20/20 deg, forks in phase -> ratio 1 (< 1e-9;
     # our central difference adds ~1e-10)
     s1, s2 = _axes(20, 20)
     arm = unit(np.cross(s1, s2))
@@ -127,7 +134,7 @@ def test_two_joints_in_phase_are_constant_velocity():
 
 
 def test_two_joints_out_of_phase_add():
-    # notes §1.3 and §8 row 6 [DER]: W 20/20, forks 90 deg out of phase -> 0.883022 ... 1.132474
+    # regression value: W 20/20, forks 90 deg out of phase -> 0.883022 ... 1.132474
     s1, s2 = _axes(20, 20)
     s3 = np.array([math.cos(D(40)), math.sin(D(40)), 0.0])
     ratio = cardan_chain_speed_ratio([s1, s2, s3], unit(np.cross(s1, s2)), [np.pi / 2], THETA)
@@ -135,7 +142,7 @@ def test_two_joints_out_of_phase_add():
 
 
 def test_deflection_planes_90_apart():
-    # notes §1.3 [DER]: planes 90 deg apart, 10/10 deg: in phase p-p 0.061245; forks offset by
+    # regression value: planes 90 deg apart, 10/10 deg: in phase p-p 0.061245; forks offset by
     # 90 deg (relative phase zero, Fischer & Paul) p-p < 3e-12 (ours < 1e-9, numeric derivative)
     s1 = np.array([1.0, 0.0, 0.0])
     s2 = np.array([math.cos(D(10)), math.sin(D(10)), 0.0])
@@ -149,7 +156,7 @@ def test_deflection_planes_90_apart():
 
 
 def test_equivalent_angle_table():
-    # notes §1.4 table and §8 rows 7, 8 [DER]: printed to 4 / 3 decimals
+    # regression value: printed to 4 / 3 decimals
     assert math.degrees(equivalent_angle_one_plane(D(6), D(4))) == pytest.approx(
         4.4721, abs=half_unit(4))
     rows = [((6, 3, 4, 1), 5.519), ((3, 4, 4, 3), 3.742), ((5, 5, 5, 5), 0.0),
@@ -160,7 +167,7 @@ def test_equivalent_angle_table():
 
 
 def test_one_plane_exact_model_row():
-    # notes §1.4 table row (6,0)/(4,0) [DER]: exact two-joint model p-p 0.006108 (one plane, Z)
+    # regression value, row (6,0)/(4,0): exact two-joint model p-p 0.006108 (one plane, Z)
     s1 = np.array([1.0, 0.0, 0.0])
     s2 = np.array([math.cos(D(6)), math.sin(D(6)), 0.0])
     s3 = np.array([math.cos(D(2)), math.sin(D(2)), 0.0])
@@ -169,18 +176,18 @@ def test_one_plane_exact_model_row():
 
 
 def test_true_angle_from_projections():
-    # notes §1.5 and §8 row 9 [DER]: tan(b_h) = dy/dx, tan(b_v) = dz/dx -> 7.1950 deg
+    # regression value: tan(b_h) = dy/dx, tan(b_v) = dz/dx -> 7.1950 deg
     v = np.array([1.0, math.tan(D(6)), math.tan(D(4))])
     assert math.degrees(angle_between([1.0, 0.0, 0.0], v)) == pytest.approx(7.1950,
                                                                             abs=half_unit(4))
 
 
-# --- §2 CV joints ------------------------------------------------------------------------------
+# --- CV joints ------------------------------------------------------------------------------
 
 @pytest.mark.parametrize("beta, moment, secondary", [
     (10, 1003.82, 87.49), (20, 1015.43, 176.33), (30, 1035.28, 267.95)])
 def test_cv_moment_table(beta, moment, secondary):
-    # notes §2.2 table and §8 row 10 [DER], T = 1000 N*m
+    # regression value, T = 1000 N*m
     a = np.array([0.0, 1.0, 0.0])
     b = np.array([0.0, math.cos(D(beta)), -math.sin(D(beta))])
     m = cv_joint_moment(1000.0, a, b)
@@ -192,11 +199,11 @@ def test_cv_moment_table(beta, moment, secondary):
 
 @pytest.mark.parametrize("beta, e_mm", [(5, 0.0573), (10, 0.2314), (20, 0.9627)])
 def test_tripod_orbit(beta, e_mm):
-    # notes §2.3 and §8 row 11 [DER], r = 30 mm
+    # regression value, r = 30 mm
     assert tripod_orbit_radius(0.030, D(beta)) * 1e3 == pytest.approx(e_mm, abs=half_unit(4))
 
 
-# --- §3.3 worked geometry ----------------------------------------------------------------------
+# --- worked geometry ----------------------------------------------------------------------
 
 R_LOADED = 0.29
 K_L = unit(np.array([-math.tan(D(3)), -math.tan(D(13)), 1.0]))
@@ -208,13 +215,13 @@ Y = np.array([0.0, 1.0, 0.0])
 
 
 def test_worked_example_points():
-    # notes §3.3 [DER]: k_L = (-0.05100, -0.22466, 0.97310), O_L = (-0.00020, 0.66305, 0.29)
+    # regression value: k_L = (-0.05100, -0.22466, 0.97310), O_L = (-0.00020, 0.66305, 0.29)
     assert K_L == pytest.approx([-0.05100, -0.22466, 0.97310], abs=half_unit(5))
     assert O_L == pytest.approx([-0.00020, 0.66305, 0.29], abs=half_unit(5))
 
 
 def test_worked_example_design():
-    # notes §3.3 table and §8 row 12 [DER]: L_L 0.46348, beta_L 2.4733; L_R 0.68334, 1.6773 deg
+    # regression value: L_L 0.46348, beta_L 2.4733; L_R 0.68334, 1.6773 deg
     left = joint_geometry(I_L, Y, O_L, Y)
     right = joint_geometry(I_R, -Y, O_L * FLIP, -Y)
     assert left.length == pytest.approx(0.46348, abs=half_unit(5))
@@ -226,10 +233,10 @@ def test_worked_example_design():
 
 @pytest.mark.parametrize("dz, side, length, plunge_mm, beta", [
     (0.08, "L", 0.46692, 3.44, 7.383), (0.08, "R", 0.68568, 2.34, 5.020),
-    (-0.08, "L", 0.47372, 10.24, 12.186), (-0.08, "R", 0.69033, 6.99, 8.329),  # §8 row 13
+    (-0.08, "L", 0.47372, 10.24, 12.186), (-0.08, "R", 0.69033, 6.99, 8.329),
 ])
 def test_worked_example_translation(dz, side, length, plunge_mm, beta):
-    # notes §3.3 travel table, model (A) rigid vertical translation [DER]
+    # regression value, model (A) rigid vertical translation
     inboard, axis, outboard = (I_L, Y, O_L) if side == "L" else (I_R, -Y, O_L * FLIP)
     design = joint_geometry(inboard, axis, outboard, axis)
     moved = joint_geometry(inboard, axis, outboard + [0.0, 0.0, dz], axis)
@@ -240,7 +247,7 @@ def test_worked_example_translation(dz, side, length, plunge_mm, beta):
 
 @pytest.mark.parametrize("delta, beta", [(10, 9.852), (30, 29.009), (40, 38.646)])
 def test_worked_example_steer_about_axis(delta, beta):
-    # notes §3.3 and §8 row 14 [DER]: O on the steering axis -> plunge 0, outboard angle beta
+    # regression value: O on the steering axis -> plunge 0, outboard angle beta
     spindle = rotate(Y, K_L, D(delta))
     outboard = O_L + rotate(O_L - P_L, K_L, D(delta)) - (O_L - P_L)
     geo = joint_geometry(I_L, Y, outboard, spindle)
@@ -250,16 +257,16 @@ def test_worked_example_steer_about_axis(delta, beta):
 
 
 def test_worked_example_steer_offset_joint():
-    # notes §3.3 [DER]: O 15 mm inboard of the axis (along the spindle), delta 30 -> +1.926 mm
+    # regression value: O 15 mm inboard of the axis (along the spindle), delta 30 -> +1.926 mm
     o_off = O_L - 0.015 * Y
     moved = P_L + rotate(o_off - P_L, K_L, D(30))
     plunge = joint_geometry(I_L, Y, moved, Y).length - joint_geometry(I_L, Y, o_off, Y).length
     assert plunge * 1e3 == pytest.approx(1.926, abs=half_unit(3))
 
 
-# --- §4.2 bearing life -------------------------------------------------------------------------
+# --- bearing life -------------------------------------------------------------------------
 
 def test_bearing_life_check_value():
-    # notes §4.2 [DER] on ISO 281 [M]: C = 20 kN, P = 1 kN, p = 3 -> 8000e6 revolutions
+    # regression value of L10 = (C/P)^3 10^6: C = 20 kN, P = 1 kN, p = 3 -> 8000e6 revolutions
     assert rating_life(20e3, 1e3) == pytest.approx(8000e6, rel=1e-12)
     assert equivalent_load([1e3], [5.0]) == pytest.approx(1e3, rel=1e-12)

@@ -1,19 +1,26 @@
-"""Torsional buckling of thin tubes: EN 1993-1-6 Annex D and classical formulas.
+"""Torsional buckling of thin tubes, EN 1993-1-6 Annex D and classical formulas: regression values.
 
-Sources: EN 1993-1-6:2007 (Eurocode 3, Part 1-6, shells), Annex D.1.4, eqs. D.37-D.41 and D.54
-(equation numbers per open code quoted in the notes; the 2007 short-tube C_tau from memory);
-S. P. Timoshenko & J. M. Gere, *Theory of Elastic Stability*, 2nd ed. (1961), §11.12 (from
-memory); L. H. Donnell, NACA Report 479 (1933), Roark 7th ed. Table 15.2 form (from memory).
-Check values: the project's reference notes (/work/shared/reference/sections_and_strength.md §6,
-[C], E = 210 GPa, nu = 0.3, f_yk = 600 MPa), printed to integer MPa (tolerance 0.6 MPa) or one
-decimal (0.06 MPa).
+REGRESSION VALUES, not published ones: every check value below was computed with the
+formula named beside it for the inputs shown (numpy/scipy, double precision) when the
+method was written, and pins today's behaviour. They are not evidence that the method is
+right; published check values are in tests/validation/.
+
+Formulas: EN 1993-1-6:2007 Annex D.1.4, tau_cr = 0.75 E C_tau sqrt(1/omega) (t/r), omega =
+L/sqrt(r t), C_tau = 1 (medium), (1/3) sqrt(omega t/r) (long), sqrt(1 + 42/omega^3) (short, 2007
+form: from memory, verify in the 2007 text), exemption r/t <= 0.17 (E/f_yk)^0.67 (equation numbers
+from an open-source implementation, not read in the standard); long-tube classical
+E/(3 sqrt 2 (1 - nu^2)^0.75) (t/r)^1.5 (S. P. Timoshenko & J. M. Gere, Theory of Elastic
+Stability, 2nd ed. (1961), section 11.12, from memory); Donnell (NACA Report 479, 1933) moderate
+length, from memory. E = 210 GPa, nu = 0.3, f_yk = 600 MPa. Printed to integer MPa (tolerance
+0.6 MPa) or one decimal (0.06 MPa).
 """
+
 
 import pytest
 
 from shaftcheck.methods import buckling as bk
 
-# (D, t, L mm, r/t, omega, regime, tau_cr EN, classical long) — notes §6 table [C].
+# (D, t, L mm, r/t, omega, regime, tau_cr EN, classical long) — regression value.
 TABLE = [
     (50, 2.0, 500, 12.0, 72.17, "medium", 1545, 1278),
     (50, 4.0, 500, 5.75, 52.13, "long", 3808, 3853),
@@ -44,7 +51,7 @@ def test_donnell_moderate_length():
 
 
 def test_long_limit_matches_classical_formula():
-    # notes §6: the EN long-tube limit is 0.25 E (t/r)^1.5; Timoshenko & Gere give
+    # regression value: the EN long-tube limit is 0.25 E (t/r)^1.5; Timoshenko & Gere give
     # E/(3 sqrt 2 (1-nu^2)^0.75) = 0.2530 E at nu = 0.3, so they agree within 1.3 %.
     r, t = 20e-3, 1e-3
     en = bk.en1993_critical_shear(50.0, r, t, 210e9)
@@ -54,12 +61,12 @@ def test_long_limit_matches_classical_formula():
 
 
 def test_exemption_limit_d54():
-    # notes §6: r/t <= 0.17 (E/f_yk)^0.67 = 8.61 for E = 210 GPa, f_yk = 600 MPa.
+    # regression value: r/t <= 0.17 (E/f_yk)^0.67 = 8.61 for E = 210 GPa, f_yk = 600 MPa.
     assert bk.en1993_exemption_limit(210e9, 600e6) == pytest.approx(8.61, abs=0.006)
 
 
 def test_short_regime_2007_and_revised():
-    # Short tube omega < 10: 2007 form C_tau = sqrt(1 + 42/omega^3) (notes §6 [M]); at omega = 10
+    # Short tube omega < 10: 2007 form C_tau = sqrt(1 + 42/omega^3) (from memory); at omega = 10
     # it joins the medium regime within 2.1 % (sqrt(1.042)). The revised form is never below 1.
     r, t = 24e-3, 2e-3
     L = 5.0 * (r * t) ** 0.5  # omega = 5

@@ -1,14 +1,18 @@
-"""Whirling speed and torsional frequency against closed forms.
+"""Whirling speed and torsional frequency: regression values.
 
-Sources: R. D. Blevins, *Formulas for Natural Frequency and Mode Shape* (1979), Table 8-1
-(uniform Euler-Bernoulli beams, beta_1 L; from memory); Shigley 10th ed. eq. 7-22 (simply
-supported shaft) and eq. 7-32 (Dunkerley); W. T. Thomson, *Theory of Vibration with
-Applications* (two-disc torsional system, from memory). Check values: the project's reference
-notes (/work/shared/reference/sections_and_strength.md §7, §8, §9, [C]; E = 207 GPa,
-rho = 7850 kg/m^3, G = 79.3 GPa), printed to 0.1 rad/s (tolerance 0.06 rad/s) or to 5 digits.
-The FE (Hermite cubic elements, consistent mass, 20 per span) converges as h^4: against the
-closed form we demand 1e-6 relative.
+REGRESSION VALUES, not published ones: every check value below was computed with the
+formula named beside it for the inputs shown (numpy/scipy, double precision) when the
+method was written, and pins today's behaviour. They are not evidence that the method is
+right; published check values are in tests/validation/.
+
+Formulas: omega = (beta L)^2/L^2 sqrt(EI/(rho A)) (uniform beams), the project's Hermite beam FE
+(20 elements per span, consistent mass), Dunkerley's sum, omega = sqrt(k (J1 + J2)/(J1 J2)) and
+the energy ratio sqrt(k1/k2), evaluated for E = 207 GPa, rho = 7850 kg/m^3. Printed to 0.1 rad/s
+(tolerance 0.06 rad/s) or to 5 digits. The FE converges as h^4: against the closed form 1e-6
+relative is demanded. Published beam eigenvalues and an independent scipy FE are in
+tests/validation/.
 """
+
 
 import math
 
@@ -42,7 +46,7 @@ def test_uniform_other_end_conditions(ends, omega):
 
 
 def test_stepped_shaft_fe():
-    # notes §7 [C]: d30 x 0.1 + d25 x 0.4 + d30 x 0.1 m, pinned -> 882.76 rad/s, between the
+    # regression value: d30 x 0.1 + d25 x 0.4 + d30 x 0.1 m, pinned -> 882.76 rad/s, between the
     # uniform d25 (879.9) and d30 (1055.9) shafts of 0.6 m.
     spans = [span(0.1, 0.03), span(0.4, 0.025), span(0.1, 0.03)]
     w = wh.first_critical_speed(spans)
@@ -52,7 +56,7 @@ def test_stepped_shaft_fe():
 
 
 def test_point_mass_fe_and_dunkerley_lower_bound():
-    # notes §7 [C]: d25 x 0.6 m + 2 kg at midspan: FE 530.9, Dunkerley 530.1 (lower bound).
+    # regression value: d25 x 0.6 m + 2 kg at midspan: FE 530.9, Dunkerley 530.1 (lower bound).
     s = [span(0.6, 0.025)]
     fe = wh.first_critical_speed(s, [(0.3, 2.0)])
     dk = wh.dunkerley_critical_speed(s, [(0.3, 2.0)])
@@ -82,7 +86,7 @@ def test_support_positions():
 
 
 def test_torsional_two_inertia():
-    # notes §8 [C]: k = 5068.5 N*m/rad; J1 = 1.0, J2 = 0.2 -> 27.755 Hz; J2 -> inf: 11.331 Hz.
+    # regression value: k = 5068.5 N*m/rad; J1 = 1.0, J2 = 0.2 -> 27.755 Hz; J2 -> inf: 11.331 Hz.
     assert wh.torsional_natural_frequency(5068.5, 1.0, 0.2) / (2 * math.pi) == pytest.approx(
         27.755, abs=6e-4)
     assert wh.torsional_natural_frequency(5068.5, 1.0) / (2 * math.pi) == pytest.approx(
@@ -90,6 +94,6 @@ def test_torsional_two_inertia():
 
 
 def test_shock_peak_torque_ratio():
-    # notes §9 [C]: k_short/k_long = 8688.9/4678.6 -> sqrt(1.857) = 1.363.
+    # regression value: k_short/k_long = 8688.9/4678.6 -> sqrt(1.857) = 1.363.
     assert wh.shock_peak_torque_ratio(8688.9, 4678.6) == pytest.approx(1.363, abs=6e-4)
     assert wh.shock_peak_torque_ratio(4678.6, 8688.9) == pytest.approx(1.363, abs=6e-4)

@@ -1,18 +1,15 @@
-"""Closed-form torsion of round and tubular sections, and stepped shafts in series.
+"""Closed-form torsion of round and tubular sections, stepped shafts in series: regression values.
 
-Sources:
-* W. C. Young & R. G. Budynas, *Roark's Formulas for Stress and Strain*, 7th ed. (2002),
-  Table 10.1, case 1 (solid circle) and the hollow circle: J = pi d^4/32, J = pi (D^4 - d_i^4)/32,
-  tau = T r / J, theta = T L / (G J).
-* R. G. Budynas & J. K. Nisbett, *Shigley's Mechanical Engineering Design*, ch. 4, torsional
-  deflection of stepped shafts: segments in series, 1/k = sum L_i / (G J_i) (from memory, as
-  marked [M] in the reference notes).
-* The numeric check values are the project's reference notes, sections_and_strength.md §1 and §13
-  (tag [C]: computed from the formulas above with G = 79.3 GPa, Shigley Table A-5 [M]).
+REGRESSION VALUES, not published ones: every check value below was computed with the
+formula named beside it for the inputs shown (numpy/scipy, double precision) when the
+method was written, and pins today's behaviour. They are not evidence that the method is
+right; published check values are in tests/validation/.
 
-Tolerances: the notes print values rounded to the last digit shown, so each check allows half a
-unit of that digit (stated per test); everything else is double-precision arithmetic.
+Formulas: J = pi d^4/32, J = pi (D^4 - d_i^4)/32, tau = T r/J, theta = T L/(G J) (W. C. Young &
+R. G. Budynas, Roark's Formulas for Stress and Strain, 7th ed. (2002), Table 10.1), and segments
+in series 1/k = sum L_i/(G J_i). G = 79.3 GPa. Tolerance: half a unit of the last printed digit.
 """
+
 
 from __future__ import annotations
 
@@ -30,32 +27,32 @@ from shaftcheck.methods.sections import (
     twist,
 )
 
-G = 79.3e9  # [Pa] notes §1 convention (Shigley Table A-5, carbon steel) [M]
+G = 79.3e9  # [Pa] carbon steel (Shigley Table A-5, from memory)
 MM4 = 1e-12  # m^4 per mm^4
 
 
 def test_polar_moment_solid_d25():
-    # notes §1/§13 [C]: J(d25) = 38 349.52 mm^4; half a unit of the 2nd decimal
+    # regression value: J(d25) = 38 349.52 mm^4; half a unit of the 2nd decimal
     assert polar_moment(25e-3) / MM4 == pytest.approx(38349.52, abs=0.005)
 
 
 def test_polar_moment_tube_50_42():
-    # notes §1/§13 [C]: J(50/42) = 308 102.27 mm^4; half a unit of the 2nd decimal
+    # regression value: J(50/42) = 308 102.27 mm^4; half a unit of the 2nd decimal
     assert polar_moment(50e-3, 42e-3) / MM4 == pytest.approx(308102.27, abs=0.005)
 
 
 def test_shear_solid_d25_1000nm():
-    # notes §13 [C]: tau(1000 N*m, d25) = 325.949 MPa (§1 prints 325.95); half a unit of 3rd dec.
+    # regression value: tau(1000 N*m, d25) = 325.949 MPa; half a unit of 3rd dec.
     assert nominal_shear(1000.0, 25e-3) / 1e6 == pytest.approx(325.949, abs=0.0005)
 
 
 def test_shear_tube_50_42_1000nm():
-    # notes §1/§13 [C]: tau(1000 N*m, 50/42) = 81.142 MPa; half a unit of the 3rd decimal
+    # regression value: tau(1000 N*m, 50/42) = 81.142 MPa; half a unit of the 3rd decimal
     assert nominal_shear(1000.0, 50e-3, 42e-3) / 1e6 == pytest.approx(81.142, abs=0.0005)
 
 
 def test_stepped_shaft_in_series():
-    # notes §1 [C]: d25 x 300 mm + d30 x 100 mm, G = 79.3 GPa:
+    # regression value: d25 x 300 mm + d30 x 100 mm, G = 79.3 GPa:
     # k1 = 10 137.06, k2 = 63 060.60, k = 8 733.19 N*m/rad (half a unit of the 2nd decimal),
     # theta(1000 N*m) = 6.5607 deg (half a unit of the 4th decimal)
     a = Segment("solid", 0.300, 25e-3)
@@ -68,7 +65,7 @@ def test_stepped_shaft_in_series():
 
 
 def test_unequal_halfshafts_same_bar():
-    # notes §1 [C]: bar d25, L = 350 vs 650 mm: k = 8 688.9 vs 4 678.6 N*m/rad (half a unit of
+    # regression value: bar d25, L = 350 vs 650 mm: k = 8 688.9 vs 4 678.6 N*m/rad (half a unit of
     # the 1st decimal), theta(1000 N*m) = 6.59 vs 12.25 deg (half a unit of the 2nd decimal)
     short = shaft_stiffness([Segment("solid", 0.350, 25e-3)], G)
     long_ = shaft_stiffness([Segment("solid", 0.650, 25e-3)], G)
@@ -76,7 +73,7 @@ def test_unequal_halfshafts_same_bar():
     assert long_ == pytest.approx(4678.6, abs=0.05)
     assert math.degrees(twist(1000.0, short)) == pytest.approx(6.59, abs=0.005)
     assert math.degrees(twist(1000.0, long_)) == pytest.approx(12.25, abs=0.005)
-    # notes §9 [C]: energy-limited peak torque ratio sqrt(k_short/k_long) = 1.363 (3 decimals)
+    # regression value: energy-limited peak torque ratio sqrt(k_short/k_long) = 1.363 (3 decimals)
     assert math.sqrt(short / long_) == pytest.approx(1.363, abs=0.0005)
 
 
@@ -89,7 +86,7 @@ def test_series_of_equal_segments_is_their_total_length():
 
 
 def test_thin_wall_approximation_error_50x4():
-    # notes §1: J ~ 2 pi r_m^3 t [M]; error for a 50 x 4 mm tube -0.75 % [C] (to 0.005 %)
+    # regression value: thin-wall J ~ 2 pi r_m^3 t; error for a 50 x 4 mm tube -0.75 % (to 0.005 %)
     D, t = 50e-3, 4e-3
     rm = (D - t) / 2
     thin = 2 * math.pi * rm**3 * t

@@ -1,18 +1,22 @@
-"""Torque steer against the check values of the project's reference notes.
+"""Torque steer (steering-axis moments, drive split, rack force, transient): regression values.
 
-Source: shaftcheck reference notes, /work/shared/reference/kinematics_and_torque_steer.md,
-§3.3 (worked geometry), §5.1 (drive-force lever), §5.2 (joint-angle moments), §5.3 (split-mu),
-§5.4 (transient), §5.5 (rack and steering wheel), summarised in §8 rows 15-20 and 23. All of
-these are [DER]: values computed for the notes (numpy / scipy ODE), regression values, not
-published ones. Tolerances: the notes print 3 decimals (§5.2) or 2 (§5.1, §5.3, §5.5), so the
-tolerance is half a unit of the last printed digit unless stated otherwise.
+REGRESSION VALUES, not published ones: every check value below was computed with the
+formula named beside it for the inputs shown (numpy/scipy, double precision) when the
+method was written, and pins today's behaviour. They are not evidence that the method is
+right; published check values are in tests/validation/.
 
-Geometry of §3.3 (left side; right = mirror in y except I_R): R = 0.29 m, W_L = (0, 0.74, 0.29),
+Formulas: the vector steering-axis moment model of shaftcheck.methods.torque_steer (joint moment
+on the bisector plane, tyre and drive forces about the steering axis), the split-mu drive split,
+rack and steering-wheel gains, and the scipy ODE of shaftcheck.methods.transient, evaluated for the
+worked corner below. Tolerance: half a unit of the last printed digit unless stated otherwise.
+
+Worked corner (left side; right = mirror in y except I_R): R = 0.29 m, W_L = (0, 0.74, 0.29),
 C_L = (0, 0.74, 0), b_L = (0, 1, 0); steering axis sigma = 13 deg, tau = 3 deg, ground intercept
 P_L = (0.015, 0.73, 0), k_L = unit(-tan tau, -tan sigma, 1); O_L on the axis at wheel-centre
 height; I_L = (0, 0.20, 0.31), I_R = (0, 0.02, 0.31) (unequal shafts) or (0, -0.20, 0.31) (equal);
 d_L = (0, 1, 0), d_R = (0, -1, 0). Motion model (A): the knuckle translates rigidly by dz.
 """
+
 
 import numpy as np
 import pytest
@@ -36,7 +40,7 @@ I_RIGHT_EQUAL = (0.0, -0.20, 0.31)
 
 
 def corner(side: str, dz: float = 0.0, inboard=None) -> dict:
-    """§3.3 corner, translated by dz [m] (model A); right = left mirrored in y."""
+    """Worked corner, translated by dz [m] (model A); right = left mirrored in y."""
     m = np.array([1.0, 1.0 if side == "left" else -1.0, 1.0])
     k = np.array([-np.tan(TAU), -np.tan(SIGMA), 1.0])
     k /= np.linalg.norm(k)
@@ -57,7 +61,7 @@ def net(dz_left, dz_right, right_inboard, torque=1000.0):
 
 
 def test_worked_geometry_angles_and_lengths():
-    # notes §3.3 table / §8 row 12 [DER]: L_L 0.46348, beta_L 2.4733 deg; L_R 0.68334, 1.6773 deg
+    # regression value: L_L 0.46348, beta_L 2.4733 deg; L_R 0.68334, 1.6773 deg
     left, right, _ = net(0.0, 0.0, I_RIGHT_UNEQUAL)
     assert left.length == pytest.approx(0.46348, abs=5e-6)
     assert right.length == pytest.approx(0.68334, abs=5e-6)
@@ -66,18 +70,18 @@ def test_worked_geometry_angles_and_lengths():
 
 
 def test_bisector_model_per_side_and_net():
-    # notes §5.2 [DER] / §8 row 17: L -279.208, R +272.450, net -6.758 N*m at 1000 N*m per wheel
+    # regression value: L -279.208, R +272.450, net -6.758 N*m at 1000 N*m per wheel
     left, right, total = net(0.0, 0.0, I_RIGHT_UNEQUAL)
     assert left.total == pytest.approx(-279.208, abs=5e-4)
     assert right.total == pytest.approx(272.450, abs=5e-4)
     assert total == pytest.approx(-6.758, abs=5e-4)
-    # the three contributions sum to the total (Z layout: no transverse force pair, notes §2.2)
+    # the three contributions sum to the total (Z layout: no transverse force pair)
     assert left.tyre_force + left.joint_moment + left.shaft_force == pytest.approx(left.total)
     assert left.shaft_force == pytest.approx(0.0, abs=1e-9)
 
 
 def test_naive_projection_differs_and_is_not_the_tool_model():
-    # notes §5.2 [DER]: the shaft-projection model gives net -13.390 N*m (about twice -6.758)
+    # regression value: the shaft-projection model gives net -13.390 N*m (about twice -6.758)
     keys = ("inboard", "outboard", "spindle", "contact", "axis_point", "axis")
     sides = (corner("left"), corner("right", 0.0, I_RIGHT_UNEQUAL))
     naive = sum(naive_projection_moments(**{k: s[k] for k in keys}, torque=1000.0, radius=R)
@@ -87,7 +91,7 @@ def test_naive_projection_differs_and_is_not_the_tool_model():
 
 
 def test_small_angle_approximation_of_the_net():
-    # notes §5.2 [DER]: T cos(sigma) [tan(bL/2) - tan(bR/2)] = 6.771 in magnitude; the exact
+    # regression value: T cos(sigma) [tan(bL/2) - tan(bR/2)] = 6.771 in magnitude; the exact
     # vector result differs by the caster, so 0.02 N*m (0.3 %) is allowed here
     left, right, total = net(0.0, 0.0, I_RIGHT_UNEQUAL)
     approx = 1000.0 * np.cos(SIGMA) * (np.tan(left.beta_outboard / 2)
@@ -97,7 +101,7 @@ def test_small_angle_approximation_of_the_net():
 
 
 def test_drive_force_part_and_lever_arm():
-    # notes §5.1 [DER] / §8 rows 15, 16: r_a = 0.074980 m; F_x r_a = 258.55 N*m per wheel;
+    # regression value: r_a = 0.074980 m; F_x r_a = 258.55 N*m per wheel;
     # vector model -258.21 left (-33.56 tyre at ground, -224.66 from T y.k), +258.21 right
     r_a = disturbing_lever_arm(SIGMA, 0.010, R)
     assert r_a == pytest.approx(0.074980, abs=5e-7)
@@ -111,26 +115,26 @@ def test_drive_force_part_and_lever_arm():
 
 @pytest.mark.parametrize("dz, expected", [(-0.030, -16.81), (0.030, 3.39)])
 def test_heave_unequal_shafts(dz, expected):
-    # notes §5.2 [DER]: heave (model A) dz = -30 mm -> -16.81; +30 mm -> +3.39 N*m
+    # regression value: heave (model A) dz = -30 mm -> -16.81; +30 mm -> +3.39 N*m
     assert net(dz, dz, I_RIGHT_UNEQUAL)[2] == pytest.approx(expected, abs=5e-3)
 
 
 @pytest.mark.parametrize("right_inboard, expected", [(I_RIGHT_UNEQUAL, 46.08),
                                                      (I_RIGHT_EQUAL, 62.89)])
 def test_roll(right_inboard, expected):
-    # notes §5.2 [DER] / §8 row 18: roll dz_L = +30, dz_R = -30 mm -> unequal +46.08,
+    # regression value: roll dz_L = +30, dz_R = -30 mm -> unequal +46.08,
     # equal +62.89 N*m
     assert net(0.030, -0.030, right_inboard)[2] == pytest.approx(expected, abs=5e-3)
 
 
 def test_equal_shafts_cancel_in_heave():
-    # notes §5.2 [DER]: equal shafts net 0.000 at design and in any equal heave
+    # regression value: equal shafts net 0.000 at design and in any equal heave
     for dz in (-0.08, -0.03, 0.0, 0.03, 0.09):
         assert net(dz, dz, I_RIGHT_EQUAL)[2] == pytest.approx(0.0, abs=1e-9)
 
 
 def test_split_mu_tbr3():
-    # notes §5.3 [DER] / §8 row 19: mu_low 0.2, F_z 4 kN, R 0.29 -> T_low 232 N*m, F_low 800 N;
+    # regression value: mu_low 0.2, F_z 4 kN, R 0.29 -> T_low 232 N*m, F_low 800 N;
     # TBR 3 -> T_high 696 N*m, dF 1600 N, dM 119.97 N*m (r_a 0.07498 m); TBR 1 -> dF = 0
     r = split_mu(0.2, 1.0, 4000.0, 0.29, 3.0, 0.07498)
     assert r.torque_low == pytest.approx(232.0, abs=1e-9)
@@ -142,7 +146,7 @@ def test_split_mu_tbr3():
 
 
 def test_rack_force_and_pinion_torque():
-    # notes §5.5 [DER] / §8 row 23: dM 6.77 N*m, l 0.13 m, c 50 mm -> F_rack 52.08 N,
+    # regression value: dM 6.77 N*m, l 0.13 m, c 50 mm -> F_rack 52.08 N,
     # T_pinion 0.414 N*m; dM 12.9 -> 99.23 N, 0.790 N*m
     assert rack_force_from_levers(6.77, 0.0, 0.13, 0.13) == pytest.approx(52.08, abs=5e-3)
     assert steering_wheel_torque(52.0769, 0.050) == pytest.approx(0.414, abs=5e-4)
@@ -151,7 +155,7 @@ def test_rack_force_and_pinion_torque():
 
 
 def test_rack_force_from_3d_tie_rods():
-    # the same §5.5 check through 3-D tie rods: steering arms 0.13 m behind each axis, tie rods
+    # the same check through 3-D tie rods: steering arms 0.13 m behind each axis, tie rods
     # along y; a net steer-left moment of 6.77 N*m -> +52.08 N, +0.414 N*m (steer-left pull)
     gains = []
     for s in (1.0, -1.0):
@@ -169,9 +173,9 @@ TRANSIENT = dict(stiffness_left=5572.7, stiffness_right=3780.1, damping_left=2.0
 
 
 def test_transient_locked_regression():
-    # notes §5.4 [DER] (their ODE integration, step 2000 N*m at the carrier, no relaxation):
+    # regression value (their ODE integration, step 2000 N*m at the carrier, no relaxation):
     # locked max |T_L - T_R| = 326 N*m at ~122 ms, max |F_xL - F_xR| = 1122 N at ~124 ms.
-    # Tolerance: the notes print 3-4 significant figures, so 0.5 N*m / 0.5 N / 1 ms
+    # Tolerance: 3-4 significant figures printed, so 0.5 N*m / 0.5 N / 1 ms
     # (output grid 0.25 ms).
     s = simulate(DrivelineModel(**TRANSIENT, differential="locked"), 2000.0).summary()
     assert s["max_abs_torque_difference_nm"] == pytest.approx(326.0, abs=0.5)
@@ -181,7 +185,7 @@ def test_transient_locked_regression():
 
 
 def test_transient_open_regression():
-    # notes §5.4 [DER]: open max |T_L - T_R| = 0.49 N*m, max |F_xL - F_xR| = 1.46 N; printed to
+    # regression value: open max |T_L - T_R| = 0.49 N*m, max |F_xL - F_xR| = 1.46 N; printed to
     # 2-3 figures, so 0.005 N*m / 0.005 N
     s = simulate(DrivelineModel(**TRANSIENT, differential="open"), 2000.0).summary()
     assert s["max_abs_torque_difference_nm"] == pytest.approx(0.49, abs=5e-3)
