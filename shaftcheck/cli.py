@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import functools
 import json
+import math
 import os
 import sys
 from pathlib import Path
@@ -49,6 +50,72 @@ def _fail(message: str, code: int = 2):
     raise typer.Exit(code)
 
 
+# --- stated ranges of the numeric options, checked before any work --------------------------------
+#: option -> (lowest, highest, unit); a value outside (NaN and infinity included) is bad input
+OPTION_RANGES: dict[str, tuple[float, float, str]] = {
+    "--travel-points": (2, 1001, ""),
+    "--rack-points": (2, 1001, ""),
+    "--travel-step": (0.5, 500.0, "mm"),
+    "--rack-step": (0.5, 500.0, "mm"),
+    "--wall": (0.5, 50.0, "mm"),
+    "--outer-diameter": (5.0, 200.0, "mm"),
+    "--segment": (0, 999, ""),
+    "--top": (1, 1000, ""),
+    "-n": (100, 10_000_000, ""),  # = shaftcheck.studies.tolerance.MAX_SAMPLES
+    "--seed": (0, 2**32 - 1, ""),
+}
+#: travel x rack poses of one grid (check, sweep): bounds time (about 6 s) and memory
+MAX_GRID_POSES = 100_000
+
+
+def _within(option: str, value) -> None:
+    """Refuse ``value`` of ``option`` outside :data:`OPTION_RANGES` (one line, exit 2)."""
+    lo, hi, unit = OPTION_RANGES[option]
+    if value is None:
+        return
+    if not lo <= value <= hi:  # also false for NaN
+        u = f" {unit}" if unit else ""
+        _fail(f"{option} = {value:g}{u}: must be between {lo:g} and {hi:g}{u}"
+              if isinstance(value, float) else
+              f"{option} = {value:,}: must be between {lo:,} and {hi:,}")
+
+
+def _grid_poses(travel: int, rack: int) -> None:
+    if travel * rack > MAX_GRID_POSES:
+        _fail(f"{travel} x {rack} = {travel * rack:,} travel x rack poses: at most "
+              f"{MAX_GRID_POSES:,} (use fewer points or a larger step)")
+
+
+def _whole_number(text: str) -> int:
+    """An integer option written plainly (200000, 200_000) or in e-notation (2e5)."""
+    text = text.strip()
+    if len(text) > 40:
+        raise typer.BadParameter(f"{text[:20]}...: not a whole number")
+    try:
+        return int(text)
+    except ValueError:
+        pass
+    try:
+        x = float(text)
+    except ValueError:
+        raise typer.BadParameter(f"{text!r} is not a whole number") from None
+    if not math.isfinite(x) or x != math.floor(x):
+        raise typer.BadParameter(f"{text!r} is not a whole number")
+    return int(x)
+
+
+def _stepped_count(lo: float, hi: float, step: float) -> int:
+    """Upper bound of the points of a lo..hi range [m] stepped from 0 both ways, ends included."""
+    return math.floor(max(-lo, 0.0) / step) + math.floor(max(hi, 0.0) / step) + 3
+
+
+def _output_name(text: str, suffix: str) -> tuple[str, bool]:
+    """``text`` with ``suffix`` added when its name lacks it (any case); (name, added)."""
+    if text.endswith(("/", os.sep)) or Path(text).suffix.lower() == suffix:
+        return text, False
+    return text + suffix, True
+
+
 def guarded(fn):
     """Turn shaftcheck's own errors (bad input) into one line on stderr and exit status 2."""
 
@@ -57,6 +124,10 @@ def guarded(fn):
         try:
             return fn(*args, **kwargs)
         except ShaftcheckError as exc:
+            from shaftcheck.output.files import OutputExistsError
+
+            if isinstance(exc, OutputExistsError):
+                _fail(f"{exc.shown} exists; choose another name or pass --overwrite")
             _fail(str(exc))
         except FileExistsError as exc:
             _fail(str(exc))
@@ -85,14 +156,20 @@ def _load(path: Path):
 @guarded
 def check(design: Path = DesignArg, json_: bool = JsonOpt,
           travel_points: int = typer.Option(35, help="Points over the wheel-travel range."),
-          rack_points: int = typer.Option(15, help="Points over the rack-travel range.")):
+          rack_points: int = typer.Option(15, help="Points over the rack-travel range."),
+          transient: bool = typer.Option(False, "--transient", help="Also simulate the "
+                                         "torque-steer transient after a throttle step.")):
     """Run every check; exit 0 when all are met, 1 when some fail, 2 on bad input.
 
     Example: shaftcheck check example_designs/wren_tubular.toml
     """
+    _within("--travel-points", travel_points)
+    _within("--rack-points", rack_points)
+    _grid_poses(travel_points, rack_points)
     from shaftcheck.studies.evaluate import evaluate
 
-    result = evaluate(_load(design), travel_points=travel_points, rack_points=rack_points)
+    result = evaluate(_load(design), travel_points=travel_points, rack_points=rack_points,
+                      transient=transient)
     if json_:
         _print_json(result.to_dict())
     else:
@@ -120,6 +197,12 @@ def size(design: Path = DesignArg,
     """
     if side not in ("left", "right"):
         _fail(f"--side = {side!r}: must be left or right")
+    for option, value in (("--segment", segment), ("--wall", wall),
+                          ("--outer-diameter", outer_diameter), ("--top", top)):
+        _within(option, value)
+    if wall is not None and outer_diameter is not None and 2 * wall >= outer_diameter:
+        _fail(f"--wall = {wall:g} mm: must be less than half of --outer-diameter "
+              f"= {outer_diameter:g} mm")
     from shaftcheck.studies.sizing import propose_sizes
 
     d = _load(design)
@@ -143,19 +226,19 @@ def bearing(design: Path = DesignArg, json_: bool = JsonOpt,
 
     Example: shaftcheck bearing example_designs/wren_intermediate.toml
     """
-    from shaftcheck.studies.bearing import bearing_study
-    from shaftcheck.studies.geometry import grid
+    _within("--travel-points", travel_points)
+    from shaftcheck.studies import bearing as bearing_study
+    from shaftcheck.studies.context import Context
 
     d = _load(design)
-    sides = [s for s in ("left", "right") if d.side(s).intermediate is not None]
-    if not sides:
+    if all(d.side(s).intermediate is None for s in ("left", "right")):
         _fail(f"{design}: no side has an [<side>.intermediate] table; nothing to place")
-    res = bearing_study(d, sides[0], grid(*d.suspension.travel, travel_points))
-    res.pop("_checks", None)
-    if json_:
-        from shaftcheck.studies.result import jsonable
+    found, _ = bearing_study.run(d, Context(d, travel_points=travel_points))
+    from shaftcheck.studies.result import jsonable
 
-        _print_json(jsonable(res))
+    res = jsonable(next(iter(found.values())).to_dict())
+    if json_:
+        _print_json(res)
     else:
         from shaftcheck.output.console import print_bearing
 
@@ -167,18 +250,25 @@ def bearing(design: Path = DesignArg, json_: bool = JsonOpt,
 def sweep(design: Path = DesignArg,
           travel_step: float = typer.Option(10.0, help="Wheel-travel step \\[mm]."),
           rack_step: float = typer.Option(25.0, help="Rack-travel step \\[mm]."),
-          csv: Path | None = typer.Option(None, "--csv", help="Also write the grid as CSV."),
+          csv: str | None = typer.Option(None, "--csv", help="Also write the grid as CSV."),
           overwrite: bool = typer.Option(False, help="Allow --csv to replace an existing file."),
           json_: bool = JsonOpt):
     """Joint angles and plunge of both sides over the wheel-travel x rack grid.
 
     Example: shaftcheck sweep example_designs/wren_tubular.toml --travel-step 20
     """
+    _within("--travel-step", travel_step)
+    _within("--rack-step", rack_step)
+    if csv is not None:
+        from shaftcheck.output.files import check_target
+
+        check_target(csv, overwrite=overwrite)
     from shaftcheck.studies.sweep import sweep_data
 
-    if travel_step <= 0 or rack_step <= 0:
-        _fail("--travel-step and --rack-step must be greater than zero")
-    data = sweep_data(_load(design), travel_step * 1e-3, rack_step * 1e-3)
+    d = _load(design)
+    _grid_poses(_stepped_count(*d.suspension.travel, travel_step * 1e-3),
+                _stepped_count(*d.suspension.rack_travel, rack_step * 1e-3))
+    data = sweep_data(d, travel_step * 1e-3, rack_step * 1e-3)
     if csv is not None:
         from shaftcheck.output.files import write_text_atomic
         from shaftcheck.studies.sweep import sweep_csv
@@ -195,7 +285,7 @@ def sweep(design: Path = DesignArg,
 @app.command()
 @guarded
 def pull(design: Path = DesignArg, json_: bool = JsonOpt,
-         map_: Path | None = typer.Option(None, "--map", help="Write steering-wheel torque "
+         map_: str | None = typer.Option(None, "--map", help="Write steering-wheel torque "
                                              "over drive torque x travel (and roll) as CSV."),
          overwrite: bool = typer.Option(False, help="Allow --map to replace an existing file.")):
     """Torque steer: moment budget by mechanism, over travel, roll, steer and throttle; transient.
@@ -204,6 +294,10 @@ def pull(design: Path = DesignArg, json_: bool = JsonOpt,
     """
     from shaftcheck.studies.torque_steer import pull_map_csv, pull_study
 
+    if map_ is not None:
+        from shaftcheck.output.files import check_target
+
+        check_target(map_, overwrite=overwrite)
     d = _load(design)
     res = pull_study(d)
     if map_ is not None:
@@ -223,17 +317,20 @@ def pull(design: Path = DesignArg, json_: bool = JsonOpt,
 @app.command()
 @guarded
 def tolerance(design: Path = DesignArg,
-              n: int = typer.Option(20000, "-n", help="Number of Monte Carlo samples."),
-              seed: int = typer.Option(1, help="Random seed (results are reproducible)."),
+              n: int = typer.Option(20000, "-n", parser=_whole_number,
+                                    help="Number of Monte Carlo samples (100 to 10,000,000; "
+                                    "2e5 is accepted)."),
+              seed: int = typer.Option(1, help="Random seed, 0 to 4294967295 (results are "
+                                       "reproducible)."),
               json_: bool = JsonOpt):
     """Monte Carlo of manufacturing tolerances: spread of stiffness mismatch and angle difference.
 
     Example: shaftcheck tolerance example_designs/wren_tubular.toml -n 200000
     """
+    _within("-n", n)
+    _within("--seed", seed)
     from shaftcheck.studies.tolerance import tolerance_study
 
-    if n < 100:
-        _fail(f"-n = {n}: use at least 100 samples")
     loaded = _load(design)
     if json_:
         res = tolerance_study(loaded, n, seed)
@@ -253,23 +350,27 @@ def tolerance(design: Path = DesignArg,
 @app.command()
 @guarded
 def report(design: Path = DesignArg,
-           output: Path = typer.Option(..., "-o", "--output", help="PDF file to write."),
+           output: str = typer.Option(..., "-o", "--output",
+                                      help="PDF file to write (.pdf is added when missing)."),
            overwrite: bool = typer.Option(False, help="Replace an existing file.")):
     """Write the PDF release report (atomic; never replaces a file unless --overwrite).
 
     Exit 0 written and all checks met, 1 written with failed checks, 2 bad input.
     Example: shaftcheck report example_designs/wren_tubular.toml -o wren.pdf
     """
-    if output.exists() and not overwrite:
-        _fail(f"{output} exists; choose another name or pass --overwrite")
+    from shaftcheck.output.files import check_target, shown
+
+    output, added = _output_name(output, ".pdf")
+    check_target(output, overwrite=overwrite)
     from shaftcheck.report.document import write_report
     from shaftcheck.studies.evaluate import evaluate
 
-    result = evaluate(_load(design))
+    result = evaluate(_load(design), transient=True)
     write_report(result, output, overwrite=overwrite)
     verdict = "all checks met" if result.verdict == "pass" else \
         f"{len(result.failed)} check(s) NOT met"
-    typer.echo(f"wrote {output}: {verdict}")
+    typer.echo(f"wrote {shown(output)}{' (.pdf added to the name given)' if added else ''}: "
+               f"{verdict}")
     from shaftcheck.output.cautions import CAUTION_LINE
 
     typer.echo(CAUTION_LINE)
@@ -302,18 +403,34 @@ def materials(json_: bool = JsonOpt):
 
 @app.command()
 @guarded
-def new(file: Path = typer.Argument(..., help="Design file to create."),
+def new(file: str = typer.Argument(..., help="Design file to create."),
         overwrite: bool = typer.Option(False, help="Replace an existing file.")):
     """Write a commented starter design file that loads and checks.
 
     Example: shaftcheck new my_car.toml
     """
     from shaftcheck.io.starter import starter_text
-    from shaftcheck.output.files import write_text_atomic
+    from shaftcheck.output.files import shown, write_text_atomic
 
     write_text_atomic(file, starter_text(), overwrite=overwrite)
-    typer.echo(f"wrote {file}; next: shaftcheck check {file}")
+    typer.echo(f"wrote {shown(file)}; next: shaftcheck check {shown(file)}")
 
 
 def main():
-    app(prog_name="shaftcheck")
+    """Entry point: usage errors (unknown option, a value that is not a number...) are one line
+    on stderr with exit status 2, like every other bad input."""
+    try:
+        code = app(prog_name="shaftcheck", standalone_mode=False)
+    except typer.TyperException as exc:
+        if type(exc).__name__ == "NoArgsIsHelpError" or not hasattr(exc, "format_message"):
+            exc.show()  # help asked for by giving no arguments, or not a usage error
+            sys.exit(getattr(exc, "exit_code", 2))
+        ctx = getattr(exc, "ctx", None)
+        hint = f" (see {ctx.command_path} --help)" if ctx is not None else ""
+        message = " ".join(exc.format_message().split()).rstrip(".")
+        typer.echo(f"shaftcheck: error: {message}{hint}", err=True)
+        sys.exit(getattr(exc, "exit_code", 2))
+    except typer.Abort:
+        typer.echo("shaftcheck: aborted", err=True)
+        sys.exit(1)
+    sys.exit(code if isinstance(code, int) else 0)

@@ -24,12 +24,12 @@ from shaftcheck.methods.intermediate_shaft import (
     rating_life_distance,
     rating_life_time,
 )
-from shaftcheck.studies.geometry import corner_hard_points
+from shaftcheck.studies.context import strut_hard_points
 
 MM = 1e-3
 #: the demo corner (shared/examples/strut_corner_demo.toml), as the example design holds it
 EXAMPLE = Path(__file__).resolve().parents[1] / "example_designs" / "wren_tubular.toml"
-DEMO = corner_hard_points(load_design(EXAMPLE), "left")
+DEMO = strut_hard_points(load_design(EXAMPLE), "left")
 TRAVEL = np.linspace(-0.08, 0.09, 35)
 I_L = np.array([0.012, 0.245, 0.280])
 Y = np.array([0.0, 1.0, 0.0])

@@ -49,18 +49,18 @@ def test_examples_pass(intermediate, tubular):
 def test_equal_halfshafts_behind_an_intermediate_shaft_mirror_the_left(intermediate):
     """Notes §4.1 [DER]: with the inboard joint at the mirror of the left one, the angles of both
     sides are equal at every travel; the optimiser must find that length (0.285 m here)."""
-    b = intermediate.sections["bearing"]
+    b = intermediate.to_dict()["bearing"]
     assert b["length_mm"] == pytest.approx(285.0, abs=1e-3)
     assert b["max_angle_difference_deg"] < 1e-5
     # bearing centre = output point + (length - offset) x axis = 40 - (285 - 35) in y
     assert b["bearing_centre_mm"] == pytest.approx([12.0, -210.0, 280.0], abs=1e-3)
-    s = intermediate.sides
+    s = intermediate.to_dict()["sides"]
     assert s["left"]["inboard_angle_deg"] == pytest.approx(s["right"]["inboard_angle_deg"])
 
 
 def test_mirrored_shafts_have_no_net_moment_in_heave(intermediate):
     """Notes §5.2 [DER]: equal shafts give net 0.000 at design and in any equal heave."""
-    heave = intermediate.sections["torque_steer"]["heave"]
+    heave = intermediate.to_dict()["torque_steer"]["heave"]
     net = np.asarray(heave["net_moment_nm"])
     # efficiency is included and equal on both sides, so the net stays zero
     assert np.max(np.abs(net)) < 1e-6
@@ -68,7 +68,7 @@ def test_mirrored_shafts_have_no_net_moment_in_heave(intermediate):
 
 def test_roll_breaks_the_symmetry(intermediate):
     """Notes §5.2 [DER]: equal lengths do not remove joint-angle torque steer in roll."""
-    roll = np.asarray(intermediate.sections["torque_steer"]["roll"]["net_moment_nm"])
+    roll = np.asarray(intermediate.to_dict()["torque_steer"]["roll"]["net_moment_nm"])
     assert np.max(np.abs(roll)) > 10.0
 
 
@@ -123,13 +123,13 @@ def test_thin_walled_tube_fails_buckling_not_static(tmp_path):
 def test_limited_slip_adds_split_friction_and_a_transient_torque_difference(tmp_path):
     path = _variant(tmp_path, TUBULAR, (r'^differential = "open"',
                                         'differential = "limited_slip"\ntorque_bias_ratio = 3.0'))
-    ts = evaluate(load_design(path)).sections["torque_steer"]
+    ts = evaluate(load_design(path), transient=True).to_dict()["torque_steer"]
     split = ts["split_mu"]
     # notes §5.3 [DER]: T_low = mu_low F_z R; T_high = min(TBR T_low, mu_high F_z R)
     f_z, r = 8400.0 / 2, 0.305
     assert split["low_friction_left"]["torque_left_nm"] == pytest.approx(0.2 * f_z * r)
     assert split["low_friction_left"]["torque_right_nm"] == pytest.approx(3 * 0.2 * f_z * r)
-    open_ts = evaluate(load_design(TUBULAR)).sections["torque_steer"]
+    open_ts = evaluate(load_design(TUBULAR), transient=True).to_dict()["torque_steer"]
     assert (ts["transient"]["peak_torque_difference_nm"]
             > 10 * open_ts["transient"]["peak_torque_difference_nm"])
 
@@ -139,8 +139,27 @@ def test_cardan_joint_is_flagged_above_its_working_angle(tmp_path):
     result = evaluate(load_design(path))
     ids = {c.id for c in result.checks}
     assert {"cardan_working_angle_left_outboard", "cardan_working_angle_right_outboard"} <= ids
-    card = result.sections["kinematics"]["cardan"]["left_outboard"]
+    card = result.to_dict()["kinematics"]["cardan"]["left_outboard"]
     beta = np.radians(card["working_angle_deg"])
     # reference notes §1.1: peak-to-peak speed fluctuation sin^2(beta)/cos(beta)
     assert card["speed_fluctuation_peak_to_peak"] == pytest.approx(np.sin(beta) ** 2
                                                                   / np.cos(beta))
+
+
+def test_one_corner_solve_per_side_for_a_whole_evaluation():
+    # the context solves each corner once on the union of every study's grid (issue: work
+    # repeated); a second evaluate on the same context solves nothing more
+    from shaftcheck.studies.context import Context
+
+    for path in (TUBULAR, INTERMEDIATE):
+        design = load_design(path)
+        ctx = Context(design)
+        evaluate(design, ctx=ctx)
+        assert ctx.corner_solves == 2
+        evaluate(design, ctx=ctx)
+        assert ctx.corner_solves == 2
+
+
+def test_no_transient_unless_asked(tubular):
+    assert tubular.transient is None
+    assert "transient" not in tubular.to_dict()["torque_steer"]

@@ -19,7 +19,7 @@ import pytest
 from shaftcheck.io.design_file import load_design
 from shaftcheck.methods.halfshaft_geometry import solve_strut
 from shaftcheck.studies.evaluate import evaluate
-from shaftcheck.studies.geometry import corner_hard_points
+from shaftcheck.studies.context import strut_hard_points
 
 ROOT = Path(__file__).resolve().parents[1]
 TUBULAR = ROOT / "example_designs" / "wren_tubular.toml"
@@ -32,7 +32,7 @@ HEADER = ("travel_mm,rack_mm,wheel_centre_x_mm,wheel_centre_y_mm,wheel_centre_z_
 
 def _table_design(tmp_path: Path) -> Path:
     strut = load_design(TUBULAR)
-    hp = corner_hard_points(strut, "left")
+    hp = strut_hard_points(strut, "left")
     travel = np.arange(-80.0, 90.1, 10.0) * 1e-3
     rack = np.arange(-75.0, 75.1, 15.0) * 1e-3
     p = solve_strut(hp, travel, rack)
@@ -60,8 +60,9 @@ def test_table_corner_matches_strut_corner(tmp_path):
     strut = evaluate(load_design(TUBULAR), travel_points=18, rack_points=11)
     for side in ("left", "right"):
         for key in ("inboard_angle_deg", "outboard_angle_deg", "joint_centre_distance_mm"):
-            assert table.sides[side][key] == pytest.approx(strut.sides[side][key], abs=1e-4)
-    ts_t, ts_s = table.sections["torque_steer"], strut.sections["torque_steer"]
+            assert table.to_dict()["sides"][side][key] == pytest.approx(
+                strut.to_dict()["sides"][side][key], abs=1e-4)
+    ts_t, ts_s = table.to_dict()["torque_steer"], strut.to_dict()["torque_steer"]
     assert ts_t["steering_wheel_torque_nm"] == pytest.approx(ts_s["steering_wheel_torque_nm"],
                                                              abs=1e-3)
     for side in ("left", "right"):

@@ -40,7 +40,7 @@ def _show(path: Path) -> str:
 
 
 def _result(design_file: Path):
-    return evaluate(load_design(EXAMPLES / design_file.name))
+    return evaluate(load_design(EXAMPLES / design_file.name), transient=True)
 
 
 def write_all() -> int:

@@ -9,6 +9,7 @@ from rich.console import Console
 from rich.table import Table
 
 from shaftcheck.output.cautions import CAUTION_LINE
+from shaftcheck.units import NMRAD_TO_NMDEG
 
 console = Console()
 
@@ -56,10 +57,10 @@ def print_check(result) -> None:
     console.print(t)
     s = result.sides
     console.print(
-        f"stiffness: left {s['left']['torsional_stiffness_nm_per_deg']:.1f} N*m/deg, right "
-        f"{s['right']['torsional_stiffness_nm_per_deg']:.1f} N*m/deg, mismatch "
-        f"{result.stiffness_mismatch_pct:.2f} %; design torque "
-        f"{s['left']['design_torque_nm']:.0f} N*m per side")
+        f"stiffness: left {s.left.stiffness.whole * NMRAD_TO_NMDEG:.1f} N*m/deg, right "
+        f"{s.right.stiffness.whole * NMRAD_TO_NMDEG:.1f} N*m/deg, mismatch "
+        f"{s.mismatch_pct:.2f} % of the mean; design torque "
+        f"{s.left.design_torque:.0f} N*m per side")
     for n in result.notices:
         console.print(f"note: {n}")
     n_fail = len(result.failed)

@@ -89,12 +89,20 @@ class _ReportTemplate(SimpleDocTemplate):
 
 
 def story(result) -> list:
-    """All flowables of the report, summary first."""
-    rd = result.to_dict()
-    out = summary(rd)
+    """All flowables of the report, summary first; every page renders from ``result``."""
+    out = summary(result)
     for part in (stiffness, geometry, strength, torque_steer, inputs, methods, cautions):
-        out += part(result, rd)
+        out += _page(part, result)
     return out
+
+
+def _page(part, result) -> list:
+    # transitional: pages not yet moved to the typed result still take its JSON form too
+    import inspect
+
+    if len(inspect.signature(part).parameters) == 1:
+        return part(result)
+    return part(result, result.to_dict())
 
 
 def build_pdf(result) -> bytes:

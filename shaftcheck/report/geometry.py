@@ -3,22 +3,25 @@
 from __future__ import annotations
 
 from shaftcheck.report import styles as st
-from shaftcheck.report.blocks import caption, gap, intro, para, section, sub
+from shaftcheck.report.blocks import caption, gap, intro, section, sub
 from shaftcheck.report.charts import DASHED, DOTTED, Series, line_chart
 from shaftcheck.report.tables import data_table, key_value_table
+from shaftcheck.units import RAD2DEG
 
 SIDES = ("left", "right")
-TRAVEL_STEP = 0.005  # [m] chart resolution over wheel travel
 LINE_WIDTH = {"left": 2.2, "right": 1.0}  # the left line stays visible under an equal right
 
 
-def sweep(design) -> dict:
-    """The library's travel x rack sweep at rack centred and both locks (trade units)."""
-    from shaftcheck.studies.sweep import sweep_data
-
-    lo, hi = design.suspension.rack_travel
-    rack_step = max(-lo, hi, 1e-3)
-    return sweep_data(design, TRAVEL_STEP, rack_step)
+def sweep(geo) -> dict:
+    """The geometry study's own travel x rack grid in trade units, for the charts (the same
+    grid as the checks)."""
+    out = {"travel_mm": (geo.travel * 1e3).tolist(), "rack_mm": (geo.rack * 1e3).tolist()}
+    for name in SIDES:
+        sw = geo.sides[name]
+        out[name] = {"inboard_angle_deg": (sw.inboard_angle * RAD2DEG).tolist(),
+                     "outboard_angle_deg": (sw.outboard_angle * RAD2DEG).tolist(),
+                     "plunge_mm": (sw.plunge * 1e3).tolist()}
+    return out
 
 
 def _column(grid: list, j: int) -> list:
@@ -47,7 +50,7 @@ def _angle_chart(sw: dict) -> list:
                     "steer-lock extremes are in the table below.")]
 
 
-def _plunge_chart(sw: dict, kin: dict) -> list:
+def _plunge_chart(sw: dict, geo) -> list:
     t, rack = sw["travel_mm"], sw["rack_mm"]
     poses = [(_rack_index(rack, 0.0), None, 1.0, "rack centred")]
     if len(rack) > 1:
@@ -59,7 +62,7 @@ def _plunge_chart(sw: dict, kin: dict) -> list:
             series.append(Series(f"{name}, {label}", list(zip(t, _column(
                 sw[name]["plunge_mm"], j), strict=True)), st.SIDE_COLOURS[name], dash=dash,
                 width=w * LINE_WIDTH[name]))
-    limits = {tuple(kin[n]["plunge_limits_mm"]) for n in SIDES if kin.get(n)}
+    limits = {tuple(x * 1e3 for x in geo.sides[n].plunge_limits) for n in SIDES}
     for k, (lo, hi) in enumerate(sorted(limits)):
         tag = "" if len(limits) == 1 else f" ({k + 1})"
         for v, what in ((lo, "min"), (hi, "max")):
@@ -74,75 +77,70 @@ def _plunge_chart(sw: dict, kin: dict) -> list:
                     "inboard joints' plunge range.")]
 
 
-def _pose(p: dict | None) -> str:
-    if not p:
-        return "-"
-    return f"travel {p['travel_mm']:+.0f} mm, rack {p['rack_mm']:+.0f} mm"
+def _pose(p: tuple) -> str:
+    return f"travel {p[0] * 1e3:+.0f} mm, rack {p[1] * 1e3:+.0f} mm"
 
 
-def _worst_table(kin: dict, design) -> list:
+def _worst_table(geo, design) -> list:
     rows = []
     for name in SIDES:
-        k = kin.get(name)
-        if not k:
-            continue
-        side = design.side(name)
-        rows.append([name, "inboard angle", f"{k['max_inboard_angle_deg']:.2f} deg",
-                     f"&lt;= {side.inboard_joint.max_angle * st.DEG:.1f} deg",
-                     st.esc(_pose(k.get("max_inboard_angle_pose")))])
-        rows.append([name, "outboard angle", f"{k['max_outboard_angle_deg']:.2f} deg",
-                     f"&lt;= {side.outboard_joint.max_angle * st.DEG:.1f} deg",
-                     st.esc(_pose(k.get("max_outboard_angle_pose")))])
-        lo, hi = k["plunge_limits_mm"]
+        k, side = geo.sides[name], design.side(name)
+        rows.append([name, "inboard angle", f"{k.max_inboard_angle * RAD2DEG:.2f} deg",
+                     f"&lt;= {side.inboard_joint.max_angle * RAD2DEG:.1f} deg",
+                     st.esc(_pose(k.max_inboard_pose))])
+        rows.append([name, "outboard angle", f"{k.max_outboard_angle * RAD2DEG:.2f} deg",
+                     f"&lt;= {side.outboard_joint.max_angle * RAD2DEG:.1f} deg",
+                     st.esc(_pose(k.max_outboard_pose))])
+        lo, hi = (x * 1e3 for x in k.plunge_limits)
         rows.append([name, "plunge (min / max)",
-                     f"{k['plunge_min_mm']:+.1f} / {k['plunge_max_mm']:+.1f} mm",
+                     f"{k.plunge_min * 1e3:+.1f} / {k.plunge_max * 1e3:+.1f} mm",
                      f"{lo:+.1f} ... {hi:+.1f} mm", "over the travel x rack grid"])
     for which in ("inboard", "outboard"):
-        key = f"max_{which}_angle_difference_deg"
-        if key in kin:
-            rows.append(["both", f"{which} angle difference",
-                         f"{kin[key]:.2f} deg",
-                         f"&lt;= {design.criteria.joint_angle_difference_max_deg:.1f} deg",
-                         f"travel {kin[f'max_{which}_angle_difference_travel_mm']:+.0f} mm, "
-                         "rack centred"])
+        diff, at = geo.max_angle_difference[which]
+        rows.append(["both", f"{which} angle difference", f"{diff * RAD2DEG:.2f} deg",
+                     f"&lt;= {design.criteria.joint_angle_difference_max_deg:.1f} deg",
+                     f"travel {at * 1e3:+.0f} mm, rack centred"])
     return [data_table(["Side", "Quantity", "Worst value", "Allowed", "Pose (worst)"], rows,
                        [16, 38, 32, 30, 54], right=(2, 3))]
 
 
-def _bearing(b: dict) -> list:
-    out = sub(f"Intermediate shaft and support bearing ({b['side']} side)")
-    life, loads = b.get("life", {}), b.get("loads", {})
+def _bearing(b) -> list:
+    out = sub(f"Intermediate shaft and support bearing ({b.side} side)")
+    life = b.life
     rows = [
-        ("Intermediate length", f"{b['length_mm']:.1f} mm ("
-         f"{'placed by shaftcheck' if b['placed'] else 'given in the design'}; range "
-         f"{b['length_range_mm'][0]:.0f} ... {b['length_range_mm'][1]:.0f} mm)"),
-        ("Bearing centre (bracket point)", f"{st.point(b['bearing_centre_mm'])} mm, "
-         f"{b['bearing_offset_mm']:.1f} mm inboard of the joint"),
-        ("Inboard joint centre", f"{st.point(b['inboard_joint_centre_mm'])} mm"),
+        ("Intermediate length", f"{b.length * 1e3:.1f} mm ("
+         f"{'placed by shaftcheck' if b.placed else 'given in the design'}; range "
+         f"{b.length_range[0] * 1e3:.0f} ... {b.length_range[1] * 1e3:.0f} mm)"),
+        ("Bearing centre (bracket point)", f"{st.point(b.bearing_centre * 1e3)} mm, "
+         f"{b.bearing_offset * 1e3:.1f} mm inboard of the joint"),
+        ("Inboard joint centre", f"{st.point(b.inboard_joint_centre * 1e3)} mm"),
         ("Left-right joint angle balance", f"largest difference "
-         f"{st.num(b['max_angle_difference_deg'], 3)} deg over travel, limit "
-         f"{b['angle_difference_limit_deg']:.1f} deg - {st.met(b['criterion_met'])}"),
-        ("Radial load at design torque", f"{st.num(loads.get('radial_load_design_n'), 4)} N "
-         f"(output support {st.num(loads.get('output_support_load_design_n'), 4)} N, joint "
-         f"couple {st.num(loads.get('joint_couple_design_nm'), 3)} N*m)"),
-        ("Equivalent load over the spectrum", f"{st.num(loads.get('equivalent_load_n'), 4)} N"),
-        ("Basic rating life L10", f"{st.num(life.get('l10_million_rev'), 3)} million rev = "
-         f"{st.num(life.get('l10_km'), 3)} km = {st.num(life.get('l10_hours'), 3)} h "
-         f"(C = {st.num(life.get('dynamic_rating_n'), 4)} N; "
-         f"{st.esc(life.get('hours_basis', ''))})"),
+         f"{st.num(b.max_angle_difference * RAD2DEG, 3)} deg over travel, limit "
+         f"{b.limit * RAD2DEG:.1f} deg - {st.met(b.criterion_met)}"),
     ]
+    if life is not None:
+        rows += [
+            ("Radial load at design torque", f"{st.num(life.radial_load_design, 4)} N "
+             f"(output support {st.num(life.output_support_load_design, 4)} N, joint "
+             f"couple {st.num(life.joint_couple_design, 3)} N*m)"),
+            ("Equivalent load over the spectrum", f"{st.num(life.equivalent_load, 4)} N"),
+            ("Basic rating life L10", f"{st.num(life.l10_rev / 1e6, 3)} million rev = "
+             f"{st.num(life.l10_distance / 1e3, 3)} km = {st.num(life.l10_time / 3600, 3)} h "
+             f"(C = {st.num(life.dynamic_rating, 4)} N; at the maximum vehicle speed, the "
+             "shortest time)"),
+        ]
     out.append(key_value_table(rows, widths_mm=(52, 118)))
-    if loads.get("convention"):
-        out.append(caption(f"Loads: {loads['convention']}."))
-    scan = b.get("scan")
-    if scan and scan.get("length_mm"):
-        pts = list(zip(scan["length_mm"], scan["max_angle_difference_deg"], strict=True))
+    if life is not None and life.convention:
+        out.append(caption(f"Loads: {life.convention}."))
+    if b.scan_length.size:
+        pts = list(zip((b.scan_length * 1e3).tolist(),
+                       (b.scan_difference * RAD2DEG).tolist(), strict=True))
         top = max(v for _, v in pts)
+        limit = b.limit * RAD2DEG
         series = [Series("largest left-right angle difference", pts, st.PLUM),
-                  Series("limit", [(pts[0][0], b["angle_difference_limit_deg"]),
-                                   (pts[-1][0], b["angle_difference_limit_deg"])], st.FAIL,
+                  Series("limit", [(pts[0][0], limit), (pts[-1][0], limit)], st.FAIL,
                          dash=DOTTED, width=0.9),
-                  Series("chosen length", [(b["length_mm"], 0.0), (b["length_mm"], top)],
+                  Series("chosen length", [(b.length * 1e3, 0.0), (b.length * 1e3, top)],
                          st.INK, dash=DASHED, width=0.9)]
         out.append(gap(2))
         out.append(line_chart(series, width_mm=170, height_mm=48,
@@ -153,21 +151,17 @@ def _bearing(b: dict) -> list:
     return out
 
 
-def geometry(result, rd: dict) -> list:
-    design = result.design
-    kin = rd.get("kinematics", {})
-    sw = sweep(design)
+def geometry(result) -> list:
+    design, geo = result.design, result.geometry
+    sw = sweep(geo)
     out = section("3  Joint geometry over wheel travel and steering")
     out.append(intro("Joint angles are the 3-D angles between the gearbox output axis, the shaft "
                     "axis and the wheel spindle axis; the suspension corner is solved at every "
                     "pose of the wheel travel x rack travel grid."))
     out += _angle_chart(sw)
-    out += _plunge_chart(sw, kin)
+    out += _plunge_chart(sw, geo)
     out += sub("Worst poses over travel and steer")
-    if kin:
-        out += _worst_table(kin, design)
-    else:
-        out.append(para("No kinematics results."))
-    if rd.get("bearing"):
-        out += _bearing(rd["bearing"])
+    out += _worst_table(geo, design)
+    for b in result.bearings.values():
+        out += _bearing(b)
     return out

@@ -216,7 +216,7 @@ def materials_used(design) -> list:
                     "modelled beyond these strengths.")]
 
 
-def inputs(result, rd: dict) -> list:
+def inputs(result) -> list:
     design = result.design
     out = section("6  Inputs")
     out.append(intro("Every value of the design file as shaftcheck read it (defaults filled in), "

@@ -2,47 +2,54 @@
 
 from __future__ import annotations
 
-from shaftcheck.errors import ShaftcheckError
+import math
+
 from shaftcheck.report import styles as st
 from shaftcheck.report.blocks import caption, gap, intro, para, section, sub, text
 from shaftcheck.report.charts import hbar_chart
 from shaftcheck.report.tables import data_table
+from shaftcheck.units import NMRAD_TO_NMDEG, RAD2DEG
 
 SIDES = ("left", "right")
 
 
-def _stiffness_table(rd: dict, design) -> list:
+def _mismatch_check(result):
+    return next((c for c in result.checks if c.id == "stiffness_mismatch"), None)
+
+
+def _stiffness_table(result) -> list:
     rows = []
     for name in SIDES:
-        s = rd["sides"][name]
-        rows.append([name, st.fixed(s["torsional_stiffness_nm_per_deg"]),
-                     st.fixed(s["shaft_torsional_stiffness_nm_per_deg"]),
-                     st.fixed(s["twist_at_design_torque_deg"], 2),
-                     st.num(s["design_torque_nm"], 4), st.fixed(s["mass_kg"], 2)])
-    check = next((c for c in rd["checks"] if c["id"] == "stiffness_mismatch"), None)
+        s = result.sides[name]
+        rows.append([name, st.fixed(s.stiffness.whole * NMRAD_TO_NMDEG),
+                     st.fixed(s.stiffness.shaft * NMRAD_TO_NMDEG),
+                     st.fixed(s.twist_at_design_torque * RAD2DEG, 2),
+                     st.num(s.design_torque, 4), st.fixed(s.mass, 2)])
+    check = _mismatch_check(result)
     out = [data_table(["Side", "Stiffness, whole side [N*m/deg]", "Shafts only [N*m/deg]",
                        "Twist at design torque [deg]", "Design torque [N*m]", "Shaft mass [kg]"],
                       rows, [20, 34, 30, 32, 28, 26], right=(1, 2, 3, 4, 5))]
-    verdict = st.met(check["passed"]) if check else "-"
+    verdict = st.met(check.passed) if check else "-"
+    where = check.location if check else "whole sides"
     out.append(gap(1.5))
     out.append(para(
-        f"Mismatch of the whole sides (joints included): "
-        f"<b>{st.fixed(rd['stiffness_mismatch_pct'], 2)} %</b>, limit "
-        f"{st.fixed(design.criteria.stiffness_mismatch_max_pct, 1)} % - {verdict}."))
+        f"Mismatch of the {st.esc(where)}, relative to the mean of the two sides: "
+        f"<b>{st.fixed(result.sides.mismatch_pct, 2)} %</b>, limit "
+        f"{st.fixed(result.design.criteria.stiffness_mismatch_max_pct, 1)} % - {verdict}."))
     return out
 
 
-def _share_chart(rd: dict) -> list:
+def _share_chart(result) -> list:
     labels, values, colours, texts = [], [], [], []
     for name in SIDES:
-        for c in rd["sides"][name]["compliance_shares"]:
-            labels.append(f"{name}: {c['element']}")
-            values.append(c["share_pct"] or 0.0)
-            colours.append(st.SIDE_COLOURS["intermediate" if c["part"] == "intermediate"
+        for e in result.sides[name].stiffness.elements:
+            share = 100 * e.share
+            labels.append(f"{name}: {e.label}")
+            values.append(share if math.isfinite(share) else 0.0)
+            colours.append(st.SIDE_COLOURS["intermediate" if e.part == "intermediate"
                                            else name])
-            rigid = c["part"] == "joint" and c["stiffness_nm_per_deg"] is None
-            texts.append("rigid (no stiffness given)" if rigid else
-                         f"{c['share_pct']:.1f} %")
+            rigid = e.part == "joint" and not math.isfinite(e.stiffness)
+            texts.append("rigid (no stiffness given)" if rigid else f"{share:.1f} %")
     chart = hbar_chart(labels, values, colours, width_mm=170, value_max=100, value_text=texts,
                        xlabel="share of the side's twist [%]",
                        title="Share of each element in its side's twist", label_width=175)
@@ -60,12 +67,9 @@ def _proposal_rows(p: dict) -> list:
     return rows
 
 
-def _proposals(design, rd: dict) -> list:
-    from shaftcheck.studies.sizing import propose_sizes
-
-    s = rd["sides"]
-    stiffer = "left" if s["left"]["torsional_stiffness_nm_per_deg"] >= \
-        s["right"]["torsional_stiffness_nm_per_deg"] else "right"
+def _proposals(result) -> list:
+    s = result.sides
+    stiffer = "left" if s.left.stiffness.whole >= s.right.stiffness.whole else "right"
     softer = "right" if stiffer == "left" else "left"
     out = sub("Sizing proposals (the mismatch is not met)")
     out.append(text("Each proposal resizes one segment (the longest plain or tubular one) so "
@@ -74,11 +78,11 @@ def _proposals(design, rd: dict) -> list:
                     "Static safety is S_sy over the nominal shear at the design torque, without "
                     "stress concentration: re-run the full check on the chosen size."))
     for side, how in ((softer, "stiffen the softer side"), (stiffer, "soften the stiffer side")):
-        try:
-            p = propose_sizes(design, side).to_dict(4)
-        except ShaftcheckError as exc:
-            out.append(text(f"{side} side ({how}): no proposal - {exc}"))
+        found = s.proposals.get(side)
+        if not hasattr(found, "to_dict"):
+            out.append(text(f"{side} side ({how}): no proposal - {found}"))
             continue
+        p = found.to_dict(4)
         out.append(para(
             f"<b>{side} side - {how}</b>: segment [{p['segment_index']}] "
             f"{st.esc(p['segment'])}, now {st.fixed(p['current_stiffness_nm_per_deg'])} N*m/deg, "
@@ -94,16 +98,15 @@ def _proposals(design, rd: dict) -> list:
     return out
 
 
-def stiffness(result, rd: dict) -> list:
+def stiffness(result) -> list:
     out = section("2  Stiffness balance")
     out.append(intro("Unequal torsional stiffness of the two halfshafts makes the wheel torques "
                     "differ while torque builds up. Each side is a chain of springs in series: "
                     "joints (where a stiffness is given), spline ends, plain and tubular "
                     "segments, and the intermediate shaft where there is one."))
-    out += _stiffness_table(rd, result.design)
+    out += _stiffness_table(result)
     out.append(gap(2))
-    out += _share_chart(rd)
-    check = next((c for c in rd["checks"] if c["id"] == "stiffness_mismatch"), None)
-    if check is not None and not check["passed"]:
-        out += _proposals(result.design, rd)
+    out += _share_chart(result)
+    if result.sides.proposals:
+        out += _proposals(result)
     return out

@@ -40,6 +40,16 @@ def grid(lo: float, hi: float, n: int) -> np.ndarray:
     return np.unique(g)
 
 
+def strut_hard_points(design, side: str):
+    """StrutHardPoints (SI) of one strut corner of the design."""
+    from shaftcheck.methods.halfshaft_geometry import StrutHardPoints
+    from shaftcheck.model.design import HARD_POINTS
+
+    c = design.suspension.left if side == "left" else design.suspension.right
+    return StrutHardPoints(*(np.asarray(getattr(c, n)) for n in HARD_POINTS),
+                           outboard_joint_offset=c.outboard_joint_offset)
+
+
 @dataclass(frozen=True)
 class DesignGeometry:
     """Joint geometry of one side at the design position (SI).
@@ -134,17 +144,13 @@ class Context:
 
     # --- corner poses ---------------------------------------------------------------------------
     def _solve(self, side: str, travel: np.ndarray, rack: np.ndarray):
-        from shaftcheck.methods.halfshaft_geometry import StrutHardPoints, solve_strut
+        from shaftcheck.methods.halfshaft_geometry import solve_strut
 
         self.corner_solves += 1
         s = self.design.suspension
         c = s.left if side == "left" else s.right
         if s.model == "strut":
-            names = ("lower_arm_front", "lower_arm_rear", "lower_ball_joint", "strut_top",
-                     "tie_rod_inner", "tie_rod_outer", "wheel_centre", "spindle_axis")
-            hp = StrutHardPoints(*(np.asarray(getattr(c, n)) for n in names),
-                                 outboard_joint_offset=c.outboard_joint_offset)
-            return solve_strut(hp, travel, rack, side)
+            return solve_strut(strut_hard_points(self.design, side), travel, rack, side)
         table = s.left_table if side == "left" else s.right_table
         return table.poses(travel, rack, c.outboard_joint_offset, side)
 

@@ -1,224 +1,224 @@
-"""Geometry study of a design: both corners over the travel x rack grid, joint angles, plunge,
-joint limits, left/right angle balance and (with an intermediate shaft) the bearing placement.
+"""Geometry study: both halfshafts over the travel x rack grid — joint angles, plunge, joint
+limits, left/right angle balance over travel, Cardan working angles.
 
-Turns halfshaft-geometry and intermediate-shaft results into Check records
-and the ``kinematics`` / ``bearing`` JSON sections. No I/O.
+Contract: ``run(design, ctx) -> (GeometryResult, checks)``. The poses come from the context
+(one corner solve per side); the angles from :func:`shaftcheck.methods.halfshaft_geometry.
+halfshaft_sweep`. The result keeps the full sweep arrays, so a chart of the report and the check
+it illustrates read the same grid. Models: docs/methods.md (joint geometry, Cardan joints).
 """
 
 from __future__ import annotations
 
-import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 
 import numpy as np
 
+from shaftcheck.studies.context import SIDES, grid  # noqa: F401  (grid: transitional re-export)
 from shaftcheck.studies.result import Check
+from shaftcheck.units import RAD2DEG
 
-SIDES = ("left", "right")
-RAD2DEG = 180.0 / math.pi
-
-
-def grid(lo: float, hi: float, n: int) -> np.ndarray:
-    """n points from lo to hi [m], with the design position 0 always included."""
-    g = np.linspace(lo, hi, max(int(n), 2))
-    if lo <= 0.0 <= hi:
-        g = np.append(g[np.abs(g) > 1e-9 * max(hi - lo, 1e-12)], 0.0)
-    return np.unique(g)
+#: the citation registry key of the joint-geometry model
+GEOMETRY_REFERENCE = "notes_kin_geometry"
 
 
-def corner_hard_points(design, side: str):
-    """StrutHardPoints of one corner (SI) from the design."""
-    from shaftcheck.methods.halfshaft_geometry import StrutHardPoints
+@dataclass(frozen=True)
+class SideSweep:
+    """One halfshaft over the grid. Arrays (nt, nr): angles [rad], plunge and length [m].
 
-    c = design.suspension.left if side == "left" else design.suspension.right
-    names = ("lower_arm_front", "lower_arm_rear", "lower_ball_joint", "strut_top",
-             "tie_rod_inner", "tie_rod_outer", "wheel_centre", "spindle_axis")
-    return StrutHardPoints(*(np.asarray(getattr(c, n)) for n in names),
-                           outboard_joint_offset=c.outboard_joint_offset)
+    max_* are the largest values and their (travel, rack) pose [m]; plunge_limits [m] is the
+    joints' combined plunge range (inboard + outboard minimum, maximum).
+    """
+
+    inboard_angle: np.ndarray
+    outboard_angle: np.ndarray
+    plunge: np.ndarray
+    length: np.ndarray
+    max_inboard_angle: float
+    max_inboard_pose: tuple
+    max_outboard_angle: float
+    max_outboard_pose: tuple
+    plunge_min: float
+    plunge_min_pose: tuple
+    plunge_max: float
+    plunge_max_pose: tuple
+    plunge_limits: tuple
+
+    def to_dict(self) -> dict:
+        def pose(p):
+            return {"travel_mm": p[0] * 1e3, "rack_mm": p[1] * 1e3}
+
+        return {"max_inboard_angle_deg": self.max_inboard_angle * RAD2DEG,
+                "max_inboard_angle_pose": pose(self.max_inboard_pose),
+                "max_outboard_angle_deg": self.max_outboard_angle * RAD2DEG,
+                "max_outboard_angle_pose": pose(self.max_outboard_pose),
+                "plunge_min_mm": self.plunge_min * 1e3, "plunge_max_mm": self.plunge_max * 1e3,
+                "plunge_limits_mm": [x * 1e3 for x in self.plunge_limits]}
 
 
-def corner_poses(design, side: str, travel, rack):
-    """CornerPoses of one side over travel (nt,) x rack (nr,) [m]."""
-    from shaftcheck.methods.halfshaft_geometry import solve_strut
+@dataclass(frozen=True)
+class CardanAngle:
+    """A Cardan joint at design: working angle [rad], peak-to-peak speed fluctuation [-] and
+    secondary couples per unit torque on the input and output shafts [N*m per N*m]."""
 
-    s = design.suspension
-    if s.model == "strut":
-        return solve_strut(corner_hard_points(design, side), travel, rack, side)
-    table = s.left_table if side == "left" else s.right_table
-    offset = (s.left if side == "left" else s.right).outboard_joint_offset
-    return table.poses(travel, rack, offset, side)
-
-
-def design_corner_points(design, side: str):
-    """Wheel centre W [m], spindle axis b and outboard joint offset [m] at design position."""
-    s = design.suspension
-    c = s.left if side == "left" else s.right
-    if s.model == "strut":
-        return np.asarray(c.wheel_centre), np.asarray(c.spindle_axis), c.outboard_joint_offset
-    p = corner_poses(design, side, np.array([0.0]), np.array([0.0]))
-    return p.wheel_centre[0, 0], p.spindle_axis[0, 0], c.outboard_joint_offset
+    side: str
+    which: str
+    working_angle: float
+    speed_fluctuation: float
+    couple_input_per_nm: float
+    couple_output_per_nm: float
 
 
-@dataclass
-class GeometryStudy:
+@dataclass(frozen=True)
+class GeometryResult:
+    """Both sides over travel (nt,) x rack (nr,) [m]; the largest left-right angle differences
+    over travel at rack centred [rad] and the travel where they occur [m]."""
+
     travel: np.ndarray
     rack: np.ndarray
-    poses: dict
-    sweeps: dict  # side -> halfshaft_sweep dict (nt, nr) arrays
-    intermediate_lengths: dict = field(default_factory=dict)
-    bearing: dict | None = None
-    checks: list = field(default_factory=list)
-    summary: dict = field(default_factory=dict)
+    sides: dict  # side -> SideSweep
+    max_angle_difference: dict  # "inboard" | "outboard" -> (difference [rad], travel [m])
+    cardans: tuple = ()
 
-    def add_to(self, result) -> None:
-        result.checks.extend(self.checks)
-        result.sections["kinematics"] = self.summary
-        if self.bearing is not None:
-            result.sections["bearing"] = self.bearing
-
-    def zero_rack_index(self) -> int:
+    @property
+    def rack_centre_index(self) -> int:
         return int(np.flatnonzero(self.rack == 0.0)[0])
 
-    def design_index(self) -> tuple[int, int]:
-        return int(np.flatnonzero(self.travel == 0.0)[0]), self.zero_rack_index()
+    def to_dict(self) -> dict:
+        out = {name: self.sides[name].to_dict() for name in SIDES}
+        for which in ("inboard", "outboard"):
+            diff, at = self.max_angle_difference[which]
+            out[f"max_{which}_angle_difference_deg"] = diff * RAD2DEG
+            out[f"max_{which}_angle_difference_travel_mm"] = at * 1e3
+        out["travel_mm"] = self.travel * 1e3
+        out["rack_mm"] = self.rack * 1e3
+        if self.cardans:
+            out["cardan"] = {f"{c.side}_{c.which}": {
+                "working_angle_deg": c.working_angle * RAD2DEG,
+                "speed_fluctuation_peak_to_peak": c.speed_fluctuation,
+                "secondary_couple_input_per_nm": c.couple_input_per_nm,
+                "secondary_couple_output_per_nm": c.couple_output_per_nm} for c in self.cardans}
+        return out
 
 
-def sweep_sides(design, travel, rack, intermediate_lengths: dict) -> tuple[dict, dict]:
-    """Poses and halfshaft sweeps of both sides."""
+def pose_label(travel: float, rack: float) -> str:
+    """A pose as the engineer reads it: travel and rack [m] printed in mm."""
+    return f"travel {travel * 1e3:+.0f} mm, rack {rack * 1e3:+.0f} mm"
+
+
+def sweep_side(ctx, name: str, travel=None, rack=None) -> dict:
+    """Angles [rad], plunge and length [m] of one side over travel x rack (default: the
+    geometry grid), from the context's poses and inboard joint centre."""
     from shaftcheck.methods.halfshaft_geometry import halfshaft_sweep
 
-    poses, sweeps = {}, {}
-    t0 = np.flatnonzero(travel == 0.0)
-    r0 = np.flatnonzero(rack == 0.0)
+    poses = ctx.poses(name, travel, rack)
+    side = ctx.design.side(name)
+    return halfshaft_sweep(poses, ctx.inboard_centre(name), np.asarray(side.output_axis),
+                           ctx.design_geometry[name].length)
+
+
+def _argmax(a: np.ndarray) -> tuple[int, int]:
+    i, j = np.unravel_index(int(np.argmax(a)), a.shape)
+    return int(i), int(j)
+
+
+def _side(ctx, name: str) -> SideSweep:
+    side = ctx.design.side(name)
+    sw = sweep_side(ctx, name)
+    t, r = ctx.travel, ctx.rack
+
+    def at(ij):
+        return (float(t[ij[0]]), float(r[ij[1]]))
+
+    ii, io = _argmax(sw["inboard_angle"]), _argmax(sw["outboard_angle"])
+    p = sw["plunge"]
+    imin = np.unravel_index(int(np.argmin(p)), p.shape)
+    imax = np.unravel_index(int(np.argmax(p)), p.shape)
+    lo = side.inboard_joint.plunge_min + side.outboard_joint.plunge_min
+    hi = side.inboard_joint.plunge_max + side.outboard_joint.plunge_max
+    return SideSweep(sw["inboard_angle"], sw["outboard_angle"], p, sw["length"],
+                     float(sw["inboard_angle"][ii]), at(ii), float(sw["outboard_angle"][io]),
+                     at(io), float(p.min()), at(imin), float(p.max()), at(imax), (lo, hi))
+
+
+def _limit_checks(design, res: GeometryResult) -> list[Check]:
+    checks = []
     for name in SIDES:
-        side = design.side(name)
-        poses[name] = corner_poses(design, name, travel, rack)
-        I = np.asarray(side.inboard_centre_at(intermediate_lengths.get(name)))
-        design_len = None
-        if t0.size == 0 or r0.size == 0:
-            W, b, off = design_corner_points(design, name)
-            design_len = float(np.linalg.norm(W - off * b - I))
-        sweeps[name] = halfshaft_sweep(poses[name], I, np.asarray(side.output_axis), design_len)
-    return poses, sweeps
+        side, sw = design.side(name), res.sides[name]
+        for which, joint in (("inboard", side.inboard_joint), ("outboard", side.outboard_joint)):
+            checks.append(Check(
+                f"{which}_angle_range_{name}", f"{which.capitalize()} joint angle within its "
+                f"maximum over travel and steer ({joint.id})", name,
+                getattr(sw, f"max_{which}_angle") * RAD2DEG, joint.max_angle * RAD2DEG, "deg",
+                "max", pose_label(*getattr(sw, f"max_{which}_pose")), GEOMETRY_REFERENCE))
+        lo, hi = sw.plunge_limits
+        checks.append(Check(
+            f"plunge_extension_{name}", "Plunge (extension) within the joints' range", name,
+            sw.plunge_max * 1e3, hi * 1e3, "mm", "max", pose_label(*sw.plunge_max_pose),
+            GEOMETRY_REFERENCE))
+        checks.append(Check(
+            f"plunge_compression_{name}", "Plunge (compression) within the joints' range", name,
+            sw.plunge_min * 1e3, lo * 1e3, "mm", "min", pose_label(*sw.plunge_min_pose),
+            GEOMETRY_REFERENCE))
+    return checks
+
+
+def _balance(ctx, sides: dict) -> tuple[dict, list[Check]]:
+    j0 = int(np.flatnonzero(ctx.rack == 0.0)[0])
+    limit = ctx.design.criteria.joint_angle_difference_max_deg
+    out, checks = {}, []
+    for which in ("inboard", "outboard"):
+        a = getattr(sides["left"], f"{which}_angle")[:, j0]
+        b = getattr(sides["right"], f"{which}_angle")[:, j0]
+        diff = np.abs(a - b)
+        i = int(np.argmax(diff))
+        out[which] = (float(diff[i]), float(ctx.travel[i]))
+        checks.append(Check(
+            f"{which}_angle_difference_travel", f"{which.capitalize()} joint angle difference "
+            "over wheel travel (rack centred)", "both", float(diff[i]) * RAD2DEG, limit, "deg",
+            "max", f"travel {ctx.travel[i] * 1e3:+.0f} mm", GEOMETRY_REFERENCE))
+    return out, checks
+
+
+def _cardans(ctx, sides: dict) -> tuple[tuple, list[Check]]:
+    from shaftcheck.methods.joints import CARDAN_WORKING_ANGLE_LIMIT, cardan_speed_fluctuation
+
+    i0 = int(np.flatnonzero(ctx.travel == 0.0)[0])
+    j0 = int(np.flatnonzero(ctx.rack == 0.0)[0])
+    found, checks = [], []
+    for name in SIDES:
+        side = ctx.design.side(name)
+        for which, joint in (("inboard", side.inboard_joint), ("outboard", side.outboard_joint)):
+            if joint.kind != "cardan":
+                continue
+            beta = float(getattr(sides[name], f"{which}_angle")[i0, j0])
+            found.append(CardanAngle(name, which, beta, float(cardan_speed_fluctuation(beta)),
+                                     float(np.tan(beta)), float(np.sin(beta))))
+            checks.append(Check(
+                f"cardan_working_angle_{name}_{which}", "Cardan joint working angle at design",
+                name, beta * RAD2DEG, CARDAN_WORKING_ANGLE_LIMIT * RAD2DEG, "deg", "max",
+                "design position", "notes_kin_cardan"))
+    return tuple(found), checks
+
+
+def run(design, ctx) -> tuple[GeometryResult, list[Check]]:
+    """Both sides over the context's travel x rack grid, with the geometry checks."""
+    sides = {name: _side(ctx, name) for name in SIDES}
+    diff, balance_checks = _balance(ctx, sides)
+    cardans, cardan_checks = _cardans(ctx, sides)
+    res = GeometryResult(ctx.travel, ctx.rack, sides, diff, cardans)
+    return res, _limit_checks(design, res) + balance_checks + cardan_checks
+
+
+# --- transitional helpers for studies not yet on the context (removed when they move) ----------
+def corner_poses(design, side: str, travel, rack):
+    """CornerPoses of one side over travel x rack [m] (a one-off context)."""
+    from shaftcheck.studies.context import Context
+
+    return Context(design).poses(side, travel, rack)
 
 
 def bearing_lengths(design, travel_points: int = 35) -> dict:
     """Intermediate-shaft length per side [m]: given, or placed by the bearing study."""
-    out = {}
-    for name in SIDES:
-        inter = design.side(name).intermediate
-        if inter is None:
-            continue
-        if inter.length is not None:
-            out[name] = inter.length
-        else:
-            from shaftcheck.studies.bearing import bearing_study
+    from shaftcheck.studies.context import Context
 
-            out[name] = bearing_study(design, name, grid(*design.suspension.travel,
-                                                           travel_points))["length_mm"] / 1e3
-    return out
-
-
-def geometry_study(design, travel_points: int = 35, rack_points: int = 15) -> GeometryStudy:
-    """Sweep both corners, place the intermediate shaft when asked, and build the checks."""
-    s = design.suspension
-    travel = grid(*s.travel, travel_points)
-    rack = grid(*s.rack_travel, rack_points)
-    lengths, bearing = {}, None
-    for name in SIDES:
-        inter = design.side(name).intermediate
-        if inter is not None:
-            from shaftcheck.studies.bearing import bearing_study
-
-            bearing = bearing_study(design, name, travel)
-            lengths[name] = bearing["length_mm"] / 1e3
-    poses, sweeps = sweep_sides(design, travel, rack, lengths)
-    st = GeometryStudy(travel, rack, poses, sweeps, lengths, bearing)
-    _limit_checks(design, st)
-    _balance_checks(design, st)
-    _cardan_checks(design, st)
-    if bearing is not None:
-        st.checks.extend(bearing.pop("_checks"))
-    return st
-
-
-def _pose_label(st: GeometryStudy, i: int, j: int) -> str:
-    return f"travel {st.travel[i] * 1e3:+.0f} mm, rack {st.rack[j] * 1e3:+.0f} mm"
-
-
-def _limit_checks(design, st: GeometryStudy) -> None:
-    summary = {}
-    for name in SIDES:
-        side, sw = design.side(name), st.sweeps[name]
-        entry = {}
-        for which, joint in (("inboard", side.inboard_joint), ("outboard", side.outboard_joint)):
-            a = sw[f"{which}_angle"]
-            i, j = np.unravel_index(int(np.argmax(a)), a.shape)
-            worst = float(a[i, j]) * RAD2DEG
-            entry[f"max_{which}_angle_deg"] = worst
-            entry[f"max_{which}_angle_pose"] = {"travel_mm": st.travel[i] * 1e3,
-                                               "rack_mm": st.rack[j] * 1e3}
-            st.checks.append(Check(
-                f"{which}_angle_range_{name}", f"{which.capitalize()} joint angle within its "
-                f"maximum over travel and steer ({joint.id})", name, worst,
-                joint.max_angle * RAD2DEG, "deg", "max", _pose_label(st, i, j),
-                "notes_kin_geometry"))
-        p = sw["plunge"]
-        lo = side.inboard_joint.plunge_min + side.outboard_joint.plunge_min
-        hi = side.inboard_joint.plunge_max + side.outboard_joint.plunge_max
-        imin = np.unravel_index(int(np.argmin(p)), p.shape)
-        imax = np.unravel_index(int(np.argmax(p)), p.shape)
-        entry["plunge_min_mm"], entry["plunge_max_mm"] = float(p.min()) * 1e3, float(p.max()) * 1e3
-        entry["plunge_limits_mm"] = [lo * 1e3, hi * 1e3]
-        st.checks.append(Check(
-            f"plunge_extension_{name}", "Plunge (extension) within the joints' range", name,
-            float(p.max()) * 1e3, hi * 1e3, "mm", "max", _pose_label(st, *imax),
-            "notes_kin_geometry"))
-        st.checks.append(Check(
-            f"plunge_compression_{name}", "Plunge (compression) within the joints' range", name,
-            float(p.min()) * 1e3, lo * 1e3, "mm", "min", _pose_label(st, *imin),
-            "notes_kin_geometry"))
-        summary[name] = entry
-    st.summary.update(summary)
-
-
-def _balance_checks(design, st: GeometryStudy) -> None:
-    j0 = st.zero_rack_index()
-    crit = design.criteria.joint_angle_difference_max_deg
-    for which in ("inboard", "outboard"):
-        diff = np.abs(st.sweeps["left"][f"{which}_angle"][:, j0]
-                      - st.sweeps["right"][f"{which}_angle"][:, j0]) * RAD2DEG
-        i = int(np.argmax(diff))
-        st.summary[f"max_{which}_angle_difference_deg"] = float(diff[i])
-        st.summary[f"max_{which}_angle_difference_travel_mm"] = float(st.travel[i] * 1e3)
-        st.checks.append(Check(
-            f"{which}_angle_difference_travel", f"{which.capitalize()} joint angle difference "
-            "over wheel travel (rack centred)", "both", float(diff[i]), crit, "deg", "max",
-            f"travel {st.travel[i] * 1e3:+.0f} mm", "notes_kin_geometry"))
-    st.summary["travel_mm"] = (st.travel * 1e3).tolist()
-    st.summary["rack_mm"] = (st.rack * 1e3).tolist()
-
-
-def _cardan_checks(design, st: GeometryStudy) -> None:
-    from shaftcheck.methods.joints import CARDAN_WORKING_ANGLE_LIMIT, cardan_speed_fluctuation
-
-    i0, j0 = st.design_index()
-    cardans = {}
-    for name in SIDES:
-        side = design.side(name)
-        for which, joint in (("inboard", side.inboard_joint), ("outboard", side.outboard_joint)):
-            if joint.kind != "cardan":
-                continue
-            beta = float(st.sweeps[name][f"{which}_angle"][i0, j0])
-            cardans[f"{name}_{which}"] = {
-                "working_angle_deg": beta * RAD2DEG,
-                "speed_fluctuation_peak_to_peak": cardan_speed_fluctuation(beta),
-                "secondary_couple_input_per_nm": math.tan(beta),
-                "secondary_couple_output_per_nm": math.sin(beta),
-            }
-            st.checks.append(Check(
-                f"cardan_working_angle_{name}_{which}", "Cardan joint working angle at design",
-                name, beta * RAD2DEG, CARDAN_WORKING_ANGLE_LIMIT * RAD2DEG, "deg", "max",
-                "design position", "notes_kin_cardan"))
-    if cardans:
-        st.summary["cardan"] = cardans
+    return Context(design, travel_points=travel_points).intermediate_lengths

@@ -7,8 +7,8 @@ Values in checks are in the trade units named by ``unit`` (they are what the eng
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
-from typing import Any
+from dataclasses import dataclass
+from typing import Any, Protocol
 
 
 @dataclass(frozen=True)
@@ -63,16 +63,33 @@ class Check:
         }
 
 
-@dataclass
+class StudyResult(Protocol):
+    """What every study returns beside its checks: a frozen dataclass of SI values that holds
+    everything a page or a table shows, with ``to_dict()`` giving its JSON section in trade
+    units (plain JSON types, see :func:`jsonable`)."""
+
+    def to_dict(self) -> dict: ...
+
+
+@dataclass(frozen=True)
 class Result:
-    """Everything computed for a design. ``sections`` holds topic dicts (plain JSON types)."""
+    """Everything computed for a design: typed study results (SI), checks and notices.
+
+    ``to_dict()`` is the one place where the whole result becomes plain JSON in trade units.
+    ``bearings`` has an entry per side with an intermediate shaft; ``transient`` is None unless
+    it was asked for.
+    """
 
     design: Any
-    sides: dict
-    stiffness_mismatch_pct: float
-    checks: list = field(default_factory=list)
-    sections: dict = field(default_factory=dict)
-    notices: list = field(default_factory=list)
+    checks: tuple
+    notices: tuple
+    load_cases: dict  # name -> torque per side [N*m]
+    sides: Any  # SidesResult
+    geometry: Any  # GeometryResult
+    bearings: dict  # side -> BearingResult
+    strength: Any  # StrengthResult
+    torque_steer: Any  # TorqueSteerResult
+    transient: Any = None  # TransientResult | None
 
     @property
     def verdict(self) -> str:
@@ -81,6 +98,10 @@ class Result:
     @property
     def failed(self) -> list:
         return [c for c in self.checks if not c.passed]
+
+    @property
+    def stiffness_mismatch_pct(self) -> float:
+        return self.sides.mismatch_pct
 
     def to_dict(self) -> dict:
         from shaftcheck import __version__
@@ -93,11 +114,18 @@ class Result:
                        "author": d.project.author},
             "verdict": self.verdict,
             "checks": [c.to_dict() for c in self.checks],
-            "sides": self.sides,
-            "stiffness_mismatch_pct": self.stiffness_mismatch_pct,
+            "sides": self.sides.to_dict(),
+            "stiffness_mismatch_pct": self.sides.mismatch_pct,
             "notices": list(self.notices),
+            "load_cases_nm": dict(self.load_cases),
+            "kinematics": self.geometry.to_dict(),
         }
-        out.update(self.sections)
+        if self.bearings:
+            out["bearing"] = next(iter(self.bearings.values())).to_dict()
+        out["strength"] = self.strength.to_dict()
+        out["torque_steer"] = self.torque_steer.to_dict()
+        if self.transient is not None:
+            out["torque_steer"]["transient"] = self.transient.to_dict()
         return jsonable(out)
 
 

@@ -1,17 +1,16 @@
 """Data of ``shaftcheck sweep``: both sides' joint angles and plunge over travel x rack.
 
-Plain dict in trade units (the JSON keys of DESIGN.md) and its CSV form. No formula here: the
-numbers come from :func:`shaftcheck.studies.geometry.sweep_sides`.
+Plain dict in trade units (the JSON keys of the sweep command) and its CSV form. No formula here:
+the numbers come from :func:`shaftcheck.studies.geometry.sweep_side` on a context of the design.
 """
 
 from __future__ import annotations
 
 import io
-import math
 
 import numpy as np
 
-RAD2DEG = 180.0 / math.pi
+from shaftcheck.units import RAD2DEG
 
 
 def stepped(lo: float, hi: float, step: float) -> np.ndarray:
@@ -23,14 +22,17 @@ def stepped(lo: float, hi: float, step: float) -> np.ndarray:
 
 
 def sweep_data(design, travel_step: float, rack_step: float) -> dict:
-    from shaftcheck.studies.geometry import bearing_lengths, sweep_sides
+    """Both sides over travel x rack in steps of travel_step and rack_step [m] (trade units)."""
+    from shaftcheck.studies.context import SIDES, Context
+    from shaftcheck.studies.geometry import sweep_side
 
     s = design.suspension
     travel = stepped(*s.travel, travel_step)
     rack = stepped(*s.rack_travel, rack_step)
-    poses, sweeps = sweep_sides(design, travel, rack, bearing_lengths(design))
+    ctx = Context(design)
     out = {"travel_mm": (travel * 1e3).tolist(), "rack_mm": (rack * 1e3).tolist()}
-    for side, sw in sweeps.items():
+    for side in SIDES:
+        sw = sweep_side(ctx, side, travel, rack)
         out[side] = {"inboard_angle_deg": (sw["inboard_angle"] * RAD2DEG).tolist(),
                      "outboard_angle_deg": (sw["outboard_angle"] * RAD2DEG).tolist(),
                      "plunge_mm": (sw["plunge"] * 1e3).tolist(),

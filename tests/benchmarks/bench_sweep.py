@@ -23,12 +23,12 @@ from shaftcheck.methods.halfshaft_geometry import (  # noqa: E402
     solve_strut,
     solve_strut_pose_scalar,
 )
-from shaftcheck.studies.geometry import corner_hard_points  # noqa: E402
+from shaftcheck.studies.context import strut_hard_points  # noqa: E402
 
 MM = 1e-3
 #: the demo corner (shared/examples/strut_corner_demo.toml), as the example design holds it
 EXAMPLE = Path(__file__).resolve().parents[2] / "example_designs" / "wren_tubular.toml"
-LEFT = corner_hard_points(load_design(EXAMPLE), "left")
+LEFT = strut_hard_points(load_design(EXAMPLE), "left")
 INBOARD = np.array([12.0, 245.0, 280.0]) * MM
 TRAVEL = np.linspace(-0.080, 0.090, 41)
 RACK = np.linspace(-0.075, 0.075, 29)
