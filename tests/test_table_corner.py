@@ -18,8 +18,8 @@ import pytest
 
 from shaftcheck.io.design_file import load_design
 from shaftcheck.methods.halfshaft_geometry import solve_strut
-from shaftcheck.studies.evaluate import evaluate
 from shaftcheck.studies.context import strut_hard_points
+from shaftcheck.studies.evaluate import evaluate
 
 ROOT = Path(__file__).resolve().parents[1]
 TUBULAR = ROOT / "example_designs" / "wren_tubular.toml"
