@@ -14,10 +14,6 @@ __version__ = "0.1.0"
 
 __all__ = ["load_design", "evaluate", "write_report", "__version__"]
 
-# Imported eagerly (it is light: no numpy at import) so that the name ``shaftcheck.evaluate`` is
-# the function, not the submodule of the same name.
-from shaftcheck.studies.evaluate import evaluate  # noqa: E402
-
 
 def load_design(path):
     """Read and validate a design file (TOML, format 1) -> Design."""
@@ -25,6 +21,12 @@ def load_design(path):
 
     return _load(path)
 
+
+def evaluate(design, **options):
+    """Every check of a Design -> Result (see :func:`shaftcheck.studies.evaluate.evaluate`)."""
+    from shaftcheck.studies.evaluate import evaluate as _evaluate
+
+    return _evaluate(design, **options)
 
 
 def write_report(result, path, *, overwrite: bool = False):
