@@ -4,7 +4,7 @@ SI throughout: points [m], travel and rack [m], angles [rad]. ISO 8855 vehicle a
 y left, z up); the left corner is on +y.
 
 Model (DESIGN.md "Strut corner"; reference notes kinematics_and_torque_steer.md §3.2 model (C),
-key ``notes_kin_strut``):
+key ``macpherson_strut_closure``):
 
 * the lower ball joint L swings on a circle about the lower-arm pivot axis (front -> rear pivot);
 * the upright (knuckle) is a rigid body carrying the wheel centre W, the spindle axis b, the
@@ -35,6 +35,7 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 
 from shaftcheck.errors import UnreachablePoseError
+from shaftcheck.methods.vectors import rotate, unit  # noqa: F401  (re-exported: older imports)
 
 #: Newton tolerance on the wheel-centre height [m].
 HEIGHT_TOLERANCE = 1e-12
@@ -42,24 +43,6 @@ HEIGHT_TOLERANCE = 1e-12
 MAX_ARM_SWING = np.radians(75.0)
 _MAX_ITERATIONS = 40
 _SLOPE_STEP = 1e-6  # [rad] central-difference step of the height slope
-
-
-def unit(v: np.ndarray) -> np.ndarray:
-    """Unit vectors along the last axis of ``v`` (any leading shape)."""
-    v = np.asarray(v, dtype=float)
-    return v / np.linalg.norm(v, axis=-1, keepdims=True)
-
-
-def rotate(v: np.ndarray, axis: np.ndarray, angle: np.ndarray) -> np.ndarray:
-    """Rotate vectors ``v`` about unit ``axis`` by ``angle`` [rad] (Rodrigues), broadcasting.
-
-    v' = v cos a + (e x v) sin a + e (e . v)(1 - cos a), right-hand rule about e.
-    """
-    v = np.asarray(v, dtype=float)
-    e = np.asarray(axis, dtype=float)
-    a = np.asarray(angle, dtype=float)[..., None]
-    dot = np.sum(e * v, axis=-1, keepdims=True)
-    return v * np.cos(a) + np.cross(e, v) * np.sin(a) + e * dot * (1.0 - np.cos(a))
 
 
 def align(v: np.ndarray, k0: np.ndarray, k: np.ndarray) -> np.ndarray:
@@ -251,13 +234,14 @@ def _newton(hp, frame, target, rack):
     slope0 = (_height(hp, frame, np.full(1, h), np.zeros(1))[0] - z0) / h
     phi = (target - hp.wheel_centre[2]) / slope0[0]
     phi = np.clip(phi, -0.9 * MAX_ARM_SWING, 0.9 * MAX_ARM_SWING)
+    rack3 = np.broadcast_to(rack, (3, *np.shape(rack)))
     for _ in range(_MAX_ITERATIONS):
-        z, psi, margin = _height(hp, frame, phi, rack)
-        res = z - target
+        # the pose and both slope points in one vectorised evaluation (same arithmetic per pose)
+        z3 = _height(hp, frame, np.stack([phi, phi + h, phi - h]), rack3)[0]
+        res = z3[0] - target
         if np.all(np.abs(res) < HEIGHT_TOLERANCE):
             break
-        slope = (_height(hp, frame, phi + h, rack)[0] - _height(hp, frame, phi - h, rack)[0]) / (
-            2 * h)
+        slope = (z3[1] - z3[2]) / (2 * h)
         bad_slope = np.sign(slope) != np.sign(slope0[0])
         step = np.where(bad_slope, 0.0, -res / np.where(bad_slope, 1.0, slope))
         phi = np.clip(phi + np.clip(step, -0.2, 0.2), -MAX_ARM_SWING, MAX_ARM_SWING)
@@ -296,7 +280,7 @@ def solve_strut(hp: StrutHardPoints, travel, rack, side: str = "left") -> Corner
 
     Returns CornerPoses with (nt, nr, 3) arrays. Raises UnreachablePoseError (travel and rack in
     mm) for the first pose, in travel-major order, that the linkage cannot reach.
-    Model and method: module docstring; reference notes §3.2 model (C) (``notes_kin_strut``).
+    Model and method: module docstring; reference notes §3.2 model (C) (``macpherson_strut_closure``).
     """
     travel = np.atleast_1d(np.asarray(travel, dtype=float))
     rack = np.atleast_1d(np.asarray(rack, dtype=float))
