@@ -112,29 +112,67 @@ def test_step_kts_pilkey_chart_3_12(D_mm, d_mm, r_mm, expected):
 
 
 def test_step_kts_same_either_way_round():
-    # the fillet is given on the segment before the step; the small side may come first
+    # the radius belongs to the step: here it is given on the small segment, which comes first.
+    # 1.4126 is the Pilkey chart 3.12 fit at D/d 1.5, r/d 0.1 computed with the fit's own
+    # coefficients (a regression value of the fit, not evidence)
     small = Segment("solid", 0.3, 25e-3, fillet_radius=2.5e-3)
     big = Segment("solid", 0.1, 37.5e-3)
     (step,) = step_concentrations([small, big])
-    assert step.small_index == 0
-    assert step.kts == pytest.approx(1.4126, abs=5e-5)  # notes §3.1 [C]
+    assert step.small_index == 0 and step.radius_source == "small" and not step.notice
+    assert step.kts == pytest.approx(1.4126, abs=5e-5)
+    (mirror,) = step_concentrations([Segment("solid", 0.1, 37.5e-3), small])
+    assert mirror.kts == step.kts and mirror.small_index == 1
 
 
-def test_missing_fillet_gives_sharp_shoulder_estimate_flagged():
-    # Shigley Table 7-1 (notes §3.1): sharp shoulder K_ts = 2.2, a first-iteration estimate
+def test_radius_on_the_smaller_segment_after_the_step_is_used():
+    # the audit's case: the radius written on the smaller segment after the step used to be
+    # ignored (sharp shoulder assumed); it now belongs to the step
+    segs = [Segment("solid", 0.1, 37.5e-3), Segment("solid", 0.3, 25e-3, fillet_radius=2.5e-3)]
+    (step,) = step_concentrations(segs)
+    assert step.fillet_radius == 2.5e-3 and step.radius_source == "small" and step.valid
+    assert step.kts == pytest.approx(1.4126, abs=5e-5)
+
+
+def test_radius_only_on_the_larger_neighbour_is_used():
+    segs = [Segment("solid", 0.1, 37.5e-3, fillet_radius=2.5e-3), Segment("solid", 0.3, 25e-3)]
+    (step,) = step_concentrations(segs)
+    assert step.radius_source == "large" and step.fillet_radius == 2.5e-3 and not step.notice
+
+
+def test_two_different_radii_take_the_smaller_segments_and_give_a_notice():
+    segs = [Segment("solid", 0.1, 37.5e-3, fillet_radius=1.0e-3),
+            Segment("solid", 0.3, 25e-3, fillet_radius=2.5e-3)]
+    (step,) = step_concentrations(segs)
+    assert step.fillet_radius == 2.5e-3 and step.radius_source == "small"
+    assert "1.00 mm" in step.notice and "2.50 mm" in step.notice
+
+
+def test_missing_fillet_gets_a_conservative_d_over_d_default_with_a_notice():
+    # no radius on either side: r = 0.02 d, the sharp-shoulder r/d of Shigley's Table 7-1
+    # (9th ed.), with the Pilkey chart 3.12 fit at that radius, so K_ts depends on D/d
     (step,) = step_concentrations([Segment("solid", 0.1, 30e-3), Segment("solid", 0.3, 25e-3)])
-    assert step.kts == 2.2
-    assert not step.valid
-    assert step.fillet_radius is None
-    assert "fillet" in step.note
+    assert step.radius_source == "default" and step.default_radius
+    assert step.fillet_radius == pytest.approx(0.5e-3)
+    assert not step.valid and "no fillet radius given" in step.note and step.notice
+    kts = [step_concentrations([Segment("solid", 0.1, D), Segment("solid", 0.3, 25e-3)])[0].kts
+           for D in (26e-3, 27.5e-3, 30e-3, 37.5e-3, 50e-3)]
+    assert kts == sorted(kts)  # grows with D/d
+    # Conservative against torsion chart readings at r/d = 0.02 (ficientdesign.com "Fillet
+    # Radius & Stress Concentration Factors", shoulder fillet under torsion table: D/d 1.1 ->
+    # 1.8, 1.5 -> 2.2, 2.0 -> 2.5, chart readings to 2 significant digits; the fit may sit up
+    # to 0.05 below a reading, the readings' rounding)
+    for D_over_d, reading in ((1.1, 1.8), (1.5, 2.2), (2.0, 2.5)):
+        (st,) = step_concentrations([Segment("solid", 0.1, 25e-3 * D_over_d),
+                                     Segment("solid", 0.3, 25e-3)])
+        assert st.kts >= reading - 0.05
 
 
 def test_out_of_range_fillet_is_flagged():
-    # notes §3.1: D/d 1.2, r/d 0.02 -> t/r = 5 outside 0.25..4, fit value about 1.96, flagged
+    # D/d 1.2, r/d 0.02 -> t/r = 5 outside the chart-3.12 fit's 0.25..4: value kept, flagged
     big = Segment("solid", 0.1, 30e-3, fillet_radius=0.5e-3)
     (step,) = step_concentrations([big, Segment("solid", 0.3, 25e-3)])
     assert not step.valid
-    assert step.kts == pytest.approx(1.96, abs=0.005)  # notes print 2 decimals
+    assert step.kts == pytest.approx(1.96, abs=0.005)  # regression value of the fit
     assert "outside" in step.note
 
 

@@ -1,8 +1,8 @@
 """Strength orchestration: closed-form twist-off torques, properties, and failing designs.
 
-Check values: the project's reference notes (/work/shared/reference/sections_and_strength.md §5,
-[C]; classical elastic-perfectly-plastic torsion, Timoshenko, *Strength of Materials* Pt II,
-from memory), the tube plastic torque re-derived with sympy, and properties that must hold
+Check values: hand calculations of classical elastic-perfectly-plastic torsion (Timoshenko,
+*Strength of Materials* Pt II, 3rd ed., from memory; docs/methods.md §8.3; regression values,
+not published ones), the tube plastic torque re-derived with sympy, and properties that must hold
 whatever the numbers (monotonicity, scaling). The failing designs are invented (no source);
 each is built so that exactly the intended check fails, which the test asserts.
 """
@@ -22,10 +22,10 @@ from shaftcheck.model.materials import Material
 
 STEEL = Material("demo", "demo steel, invented", 206e9, 79.3e9, 0.29, 7850.0, 900e6, 700e6,
                  "machined", "test values, invented")
-STEEL_900 = Material("s900", "S_y 900 (notes §5 check)", 207e9, 79.3e9, 0.3, 7850.0, 1000e6,
-                     900e6, "machined", "reference notes §5")
+STEEL_900 = Material("s900", "S_y 900 (hand-calculation case)", 207e9, 79.3e9, 0.3, 7850.0,
+                     1000e6, 900e6, "machined", "test values, invented")
 SPECTRUM = [(0.0, 600.0, 2e5), (-200.0, 800.0, 1e4)]
-WHEEL_SPEED = 2100 * math.pi / 30  # [rad/s], about 250 km/h at r = 0.32 m (notes §7)
+WHEEL_SPEED = 2100 * math.pi / 30  # [rad/s]: 2100 rpm x 0.32 m is about 250 km/h
 
 
 def solid(d, L=0.5, r=None):
@@ -39,7 +39,7 @@ def assess(segments, cases=None, spectrum=SPECTRUM, material=STEEL, **kw):
 
 # --- closed forms ------------------------------------------------------------------------------
 def test_first_yield_and_plastic_torque_solid():
-    # notes §5 [C]: d = 25 mm, S_y = 900 MPa, tau_y = 0.577 S_y -> T_y = 1593.2, T_p = 2124.3 N*m.
+    # by hand: d = 25 mm, S_y = 900 MPa, tau_y = 0.577 S_y -> T_y = 1593.2, T_p = 2124.3 N*m.
     res = assess([solid(25e-3)], material=STEEL_900)
     assert res.plastic.first_yield_torque == pytest.approx(1593.2, abs=0.06)
     assert res.plastic.plastic_torque == pytest.approx(2124.3, abs=0.06)
@@ -77,27 +77,38 @@ def test_sections_name_their_locations():
                      (1, "step 1->2"), (3, "step 2->3")}
     for s in shaft_sections(segs, STEEL):
         if s.location.where == "spline root":
-            # static: root shear without a factor (ANSI B92.1 via Machinery's Handbook, from
-            # memory); fatigue: the DIN 743-2 spline notch factor, always > 1
-            assert s.kts == 1.0 and s.kfs > 1.0
+            # the spline root estimate K_ts = K_fs = 3.0 (Shigley 9th ed. Table 7-1
+            # first-iteration value), always flagged as an estimate
+            assert s.kts == 3.0 and s.kfs == 3.0 and s.estimate and s.notice
         else:
-            assert 1.0 <= s.kfs <= s.kts  # q_s in [0, 1] (Shigley eq. 6-32)
+            assert 1.0 <= s.kfs <= s.kts  # q_s in [0, 1] (Shigley 9th ed. eq. 6-32)
 
 
-def test_no_fillet_uses_sharp_shoulder_and_full_kfs():
+def test_no_fillet_uses_the_default_radius_full_kfs_and_a_notice():
+    # no radius on either neighbour: r = 0.02 d (Shigley 9th ed. Table 7-1 sharp shoulder r/d),
+    # K_ts from the Pilkey chart 3.12 fit at that radius, q_s = 1, flagged with a notice
+    from shaftcheck.methods.stress_concentration import shoulder_fillet_kts
+
     segs = [solid(30e-3, 0.2), solid(25e-3, 0.3)]
     step = [s for s in shaft_sections(segs, STEEL) if s.location.where.startswith("step")][0]
-    assert step.kts == 2.2 and step.kfs == 2.2 and not step.notch_valid  # Shigley Table 7-1
+    assert step.kts == pytest.approx(shoulder_fillet_kts(30e-3, 25e-3, 0.5e-3).value)
+    assert step.kfs == step.kts and not step.notch_valid and step.estimate
+    assert "no fillet radius given" in step.notice
 
 
-def test_static_peak_shear_and_sign():
+def test_static_nominal_and_notch_safety_and_sign():
+    # the criterion uses the nominal safety (ductile steel under static load: K_ts not applied,
+    # Shigley 9th ed. §3-13 p. 111); the notch first-yield safety is reported beside it
     segs = [solid(30e-3, 0.2, 2e-3), solid(25e-3, 0.3)]
     res = assess(segs, {"forward": 900.0, "reverse": -900.0})
     fwd, rev = res.static
-    assert fwd.location.where == "step 0->1"
+    assert fwd.notch_location.where == "step 0->1"
+    assert fwd.location.segment == 1
+    assert fwd.nominal_shear == pytest.approx(nominal_shear(900.0, 25e-3))
     assert fwd.shear == pytest.approx(fwd.kts * nominal_shear(900.0, 25e-3))
     assert rev.safety == pytest.approx(fwd.safety)
-    assert fwd.safety == pytest.approx(0.577 * 700e6 / fwd.shear)
+    assert fwd.safety == fwd.nominal_safety == pytest.approx(0.577 * 700e6 / fwd.nominal_shear)
+    assert fwd.notch_safety == pytest.approx(fwd.nominal_safety / fwd.kts)
 
 
 def test_to_dict_is_plain_json_in_trade_units():
@@ -134,11 +145,23 @@ def test_bad_input_raises_value_error(kwargs):
                      **kwargs)
 
 
-def test_extra_length_lowers_the_whirl_speed():
+def test_whirl_supports_at_the_joint_centres():
+    # supports 50 mm beyond each bar end: the span is 0.7 m, the same as a 0.7 m bar pinned at
+    # its ends (Blevins Table 8-1 pinned-pinned, uniform beam; the FE must agree)
+    from shaftcheck.methods.whirl import uniform_beam_frequency
+
     base = assess([solid(25e-3, 0.6)])
-    longer = assess([solid(25e-3, 0.6)], extra_length=(0.05, 0.05))
+    longer = assess([solid(25e-3, 0.6)], whirl_supports=(-0.05, 0.65))
     assert longer.whirl.critical_speed < base.whirl.critical_speed
+    assert longer.whirl.span == pytest.approx(0.7)
+    EI = STEEL.elastic_modulus * math.pi * 0.025**4 / 64
+    mA = STEEL.density * math.pi * 0.025**2 / 4
+    # 20 Hermite elements per span: discretisation error about 5e-6
+    assert longer.whirl.critical_speed == pytest.approx(uniform_beam_frequency(0.7, EI, mA),
+                                                        rel=2e-5)
     assert longer.whirl.margin == pytest.approx(longer.whirl.critical_speed / WHEEL_SPEED)
+    inside = assess([solid(25e-3, 0.6)], whirl_supports=(0.05, 0.55))
+    assert inside.whirl.critical_speed > base.whirl.critical_speed  # overhangs, shorter span
 
 
 def test_computation_modules_do_not_import_scipy_at_import():
@@ -159,7 +182,10 @@ def test_thicker_solid_never_has_lower_margins(d, grow):
     a, b = assess([solid(d)]), assess([solid(d + grow)])
     assert b.static_governing.safety >= a.static_governing.safety
     assert b.fatigue.safety >= a.fatigue.safety
-    assert b.damage.total <= a.damage.total
+    if math.isnan(b.damage.total):  # a refused bin (life below 10^3 cycles) stays refused
+        assert math.isnan(a.damage.total)
+    elif not math.isnan(a.damage.total):
+        assert b.damage.total <= a.damage.total
 
 
 @settings(max_examples=40, deadline=None)
@@ -201,7 +227,8 @@ def test_miner_damage_grows_with_cycles(factor):
 
 
 # --- failing designs fail the right check --------------------------------------------------------
-STATIC_MIN, FATIGUE_MIN, BUCKLING_MIN = 1.3, 1.3, 2.0  # DESIGN.md [criteria] defaults
+STATIC_MIN, FATIGUE_MIN = 1.3, 1.3  # criteria defaults, common practice (no source)
+BUCKLING_MIN = 1.1  # gamma_M1 of EN 1993-1-6 Table 4.2 (recommended value), criteria default
 
 
 def test_too_thin_bar_fails_static():
@@ -222,9 +249,19 @@ def test_heavy_duty_cycle_fails_fatigue_only():
 
 def test_thin_walled_tube_fails_buckling_only():
     tube = [Segment("tube", 0.8, 100e-3, 98e-3)]
-    res = assess(tube, {"design": 2600.0}, spectrum=[])
+    res = assess(tube, {"design": 3400.0}, spectrum=[])
     b = res.buckling[0]
     assert res.static_governing.safety >= STATIC_MIN
     assert b.safety < BUCKLING_MIN and not b.exempt and b.regime == "medium"
-    thick = assess([Segment("tube", 0.8, 100e-3, 90e-3)], {"design": 2600.0}, spectrum=[])
+    assert b.resistance.chi < 0.6 and b.resistance.slenderness > 1.0  # slender wall
+    thick = assess([Segment("tube", 0.8, 100e-3, 90e-3)], {"design": 3400.0}, spectrum=[])
     assert thick.buckling[0].safety >= BUCKLING_MIN
+
+
+def test_buckling_plastic_reduction_is_below_the_elastic_margin():
+    # chi_tau <= 1 and tau_Rk <= f_yk/sqrt 3: the reduced margin never exceeds the yield margin
+    # nor the elastic one (EN 1993-1-6 chi definition)
+    res = assess([Segment("tube", 0.6, 35e-3, 30e-3)], {"design": 1300.0}, spectrum=[])
+    b = res.buckling[0]
+    assert b.safety <= b.elastic_safety
+    assert b.resistance.resistance <= STEEL.yield_strength / math.sqrt(3) * (1 + 1e-12)

@@ -1,14 +1,28 @@
-"""Fatigue of shafts in torsion: Marin factors, mean-stress criteria, Basquin line, Miner's rule.
+"""Fatigue of shafts in torsion: Marin factors, mean-stress criteria, the torsional S-N line,
+Miner's rule.
 
 SI throughout: stresses and strengths [Pa], diameters [m], cycles [-].
 
-**Edition.** Marin coefficients are those of Shigley's Mechanical Engineering Design, **10th ed.**
-(Budynas & Nisbett, 2015) as listed in the project's reference notes §4.1 (ground 1.38/-0.067
-confirmed via open code; machined 3.04/-0.217, hot-rolled 38.6/-0.650 and as-forged 54.9/-0.758
-from memory: verify in Table 6-2). "cold_drawn" shares the machined row (Table 6-2 groups them).
+**Edition.** The Shigley chain is cited in the **9th edition**: R. G. Budynas & J. K. Nisbett,
+*Shigley's Mechanical Engineering Design*, 9th ed. (McGraw-Hill, 2011), whose pages were read
+for the equation numbers below. Marin surface factor: Table 6-2, p. 288 (Noll & Lipson
+coefficients: ground 1.58/-0.085, machined or cold-drawn 4.51/-0.265, hot-rolled
+57.7/-0.718, as-forged 272/-0.995, S_ut in MPa). The 10th ed. (2015) prints the same table (from
+memory); the 11th ed. (2020) revised it (ground 1.38/-0.067, machined 3.04/-0.217, hot-rolled
+38.6/-0.650, as-forged 54.9/-0.758), kept here as ``SURFACE_COEFFICIENTS_11TH`` for comparison
+only. "cold_drawn" shares the machined row (Table 6-2 groups them).
 
-Torsion recipe (Shigley §6-13): replace sigma by tau, load factor k_c = 0.59,
-S_su = 0.67 S_ut, S_sy = 0.577 S_y.
+Torsion recipe (9th ed. p. 347): replace sigma by tau, load factor k_c = 0.59 (eq. 6-26),
+S_su = 0.67 S_ut (eq. 6-54), S_sy = 0.577 S_y.
+
+**Torsional S-N line** (:func:`torsional_sn_line`): the convention of the machine-design texts
+that give a torsional S-N estimate, 0.9 S_us at 10^3 cycles and the torsional endurance limit at
+10^6 (Juvinall & Marshek, *Fundamentals of Machine Component Design*, Table 8.1, torsion row;
+Norton, *Machine Design*, S_m = 0.9 S_us: both from memory), joined by a straight line on
+log-log axes, S_f = a N^b with a = (0.9 S_su)^2 / S_se, b = -(1/3) log10(0.9 S_su / S_se) (the
+form of Shigley 9th ed. eqs. 6-14, 6-15). S_su is Shigley's 0.67 S_ut (more conservative than
+Juvinall's 0.8 S_u). Below 10^3 cycles the stress-life method is not used: a bin whose
+equivalent amplitude exceeds 0.9 S_su is **refused** (life NaN, Miner total NaN) with a message.
 """
 
 from __future__ import annotations
@@ -21,38 +35,57 @@ import numpy as np
 
 from shaftcheck.methods.stress_concentration import KPSI
 
-#: Shigley 10th ed. Table 6-2 surface-factor coefficients (a with S_ut in MPa, b).
-SURFACE_COEFFICIENTS_10TH = {
+#: Shigley 9th ed. Table 6-2, p. 288: surface-factor coefficients (a with S_ut in MPa, b).
+SURFACE_COEFFICIENTS = {
+    "ground": (1.58, -0.085),
+    "machined": (4.51, -0.265),
+    "cold_drawn": (4.51, -0.265),
+    "hot_rolled": (57.7, -0.718),
+    "as_forged": (272.0, -0.995),
+}
+#: Shigley 11th ed. (2020) Table 6-2, revised coefficients; for comparison, not used by default.
+#: As-forged agrees with a published example of the 11th-ed. fit (k_a = 0.2921 at 1000 MPa);
+#: the other rows from memory.
+SURFACE_COEFFICIENTS_11TH = {
     "ground": (1.38, -0.067),
     "machined": (3.04, -0.217),
     "cold_drawn": (3.04, -0.217),
     "hot_rolled": (38.6, -0.650),
     "as_forged": (54.9, -0.758),
 }
+SURFACE_TABLES = {"shigley9": SURFACE_COEFFICIENTS, "shigley11": SURFACE_COEFFICIENTS_11TH}
+#: label of the default table, written into the output
+SURFACE_TABLE_LABEL = ("Shigley 9th ed. (2011) Table 6-2, p. 288 (Noll & Lipson coefficients, "
+                       "the 10th ed. keeps them, from memory)")
 
-TORSION_LOAD_FACTOR = 0.59  # k_c, Shigley 10th ed. eq. 6-26
-SHEAR_ULTIMATE_RATIO = 0.67  # S_su / S_ut, Shigley eq. 6-58 (2024 release)
+TORSION_LOAD_FACTOR = 0.59  # k_c, Shigley 9th ed. eq. 6-26, p. 290
+SHEAR_ULTIMATE_RATIO = 0.67  # S_su / S_ut, Shigley 9th ed. eq. 6-54, p. 317
 SHEAR_YIELD_RATIO = 0.577  # S_sy / S_y, distortion energy
 ENDURANCE_CAP = 700e6  # [Pa] S_e' above S_ut = 1400 MPa
 CRITERIA = ("goodman", "gerber", "asme_elliptic", "soderberg")
-BASQUIN_RANGE = (1e3, 1e6)  # [cycles] where the Basquin line is defined
+BASQUIN_RANGE = (1e3, 1e6)  # [cycles] where the S-N line is defined
+#: fraction of S_us reached at 10^3 cycles in torsion (Juvinall Table 8.1 / Norton, from memory)
+TORSION_1E3_FRACTION = 0.9
 
 
-def surface_factor(ultimate_strength: float, finish: str) -> float:
+def surface_factor(ultimate_strength: float, finish: str, table: str = "shigley9") -> float:
     """Marin surface factor k_a = a S_ut^b (S_ut in MPa inside the fit).
 
     Parameters: ultimate_strength S_ut [Pa]; finish "ground" | "machined" | "cold_drawn" |
-    "hot_rolled" | "as_forged". k_a is capped at 1.
+    "hot_rolled" | "as_forged"; table "shigley9" (default, 9th/10th-ed. coefficients) or
+    "shigley11" (11th-ed. revision, comparison only). k_a is capped at 1.
 
-    Source: Shigley 10th ed. Table 6-2, eq. 6-19; key ``shigley10_marin``.
+    Source: Shigley 9th ed. Table 6-2 and eq. 6-19, p. 288; key ``shigley9_marin``.
 
-    >>> round(surface_factor(1000e6, "machined"), 5)   # notes §4.1 [C], 10th-ed. coefficients
-    0.67901
+    >>> round(surface_factor(520e6, "machined"), 3)   # Shigley 9th ed. Example 6-3: 0.860
+    0.86
     """
-    if finish not in SURFACE_COEFFICIENTS_10TH:
-        raise ValueError(f"unknown surface finish {finish!r}; one of "
-                         f"{sorted(SURFACE_COEFFICIENTS_10TH)}")
-    a, b = SURFACE_COEFFICIENTS_10TH[finish]
+    if table not in SURFACE_TABLES:
+        raise ValueError(f"unknown surface-factor table {table!r}; one of {sorted(SURFACE_TABLES)}")
+    coeffs = SURFACE_TABLES[table]
+    if finish not in coeffs:
+        raise ValueError(f"unknown surface finish {finish!r}; one of {sorted(coeffs)}")
+    a, b = coeffs[finish]
     return min(1.0, a * (ultimate_strength / 1e6) ** b)
 
 
@@ -65,9 +98,9 @@ def size_factor(diameter: float) -> float:
 
     Parameters: diameter d [m] (outside diameter; for a spline the root diameter).
 
-    Source: Shigley 10th ed. eq. 6-20; key ``shigley10_marin``.
+    Source: Shigley 9th ed. eq. 6-20, p. 288; key ``shigley9_marin``.
 
-    >>> round(size_factor(25e-3), 5)   # notes §4.1 [C]
+    >>> round(size_factor(25e-3), 5)   # by hand
     0.8787
     """
     dm = diameter * 1e3
@@ -87,10 +120,10 @@ def reliability_factor(reliability: float) -> float:
     z_a = Phi^-1(R) from statistics.NormalDist().inv_cdf (exact; Shigley's Table 6-5 rounds z_a).
 
     Parameters: reliability R, 0.5 <= R < 1 [-].
-    Source: Shigley 10th ed. eq. 6-29 and Table 6-5 (8% standard deviation of S_e); key
-    ``shigley10_marin``.
+    Source: Shigley 9th ed. Table 6-5, pp. 292-293 (8 % standard deviation of S_e); key
+    ``shigley9_marin``.
 
-    >>> round(reliability_factor(0.99), 5)   # notes §4.1 [C] exact quantile
+    >>> round(reliability_factor(0.99), 5)   # by hand, exact quantile
     0.81389
     """
     from statistics import NormalDist
@@ -103,7 +136,8 @@ def reliability_factor(reliability: float) -> float:
 def endurance_limit_prime(ultimate_strength: float) -> float:
     """Rotating-beam endurance limit S_e' = 0.5 S_ut, 700 MPa above S_ut = 1400 MPa [Pa].
 
-    Source: Shigley 10th ed. eq. 6-8; key ``shigley10_marin``.
+    Source: Shigley 9th ed. eq. 6-8 (from memory: the 9th-ed. page was not read); key
+    ``shigley9_marin``.
     """
     return min(0.5 * ultimate_strength, ENDURANCE_CAP)
 
@@ -127,10 +161,11 @@ def shear_endurance_limit(ultimate_strength: float, finish: str, diameter: float
 
     Parameters: ultimate_strength S_ut [Pa]; finish (see :func:`surface_factor`); diameter [m];
     reliability [-] (0.5 gives k_e = 1); kd temperature factor [-] (1 at halfshaft temperatures).
-    Source: Shigley 10th ed. eq. 6-18 (Marin), eq. 6-26 (k_c); key ``shigley10_marin``.
+    Source: Shigley 9th ed. eq. 6-18, p. 287 (Marin), eq. 6-26, p. 290 (k_c); key
+    ``shigley9_marin``.
 
-    >>> round(shear_endurance_limit(1000e6, "machined", 25e-3).shear_endurance / 1e6, 3)
-    176.01
+    >>> round(shear_endurance_limit(1000e6, "machined", 25e-3).shear_endurance / 1e6, 2)
+    187.43
     """
     ka = surface_factor(ultimate_strength, finish)
     kb = size_factor(diameter)
@@ -141,7 +176,7 @@ def shear_endurance_limit(ultimate_strength: float, finish: str, diameter: float
 
 
 def shear_ultimate(ultimate_strength: float) -> float:
-    """S_su = 0.67 S_ut [Pa] (Shigley eq. 6-58, 2024 release; key ``shigley_ssu``)."""
+    """S_su = 0.67 S_ut [Pa] (Shigley 9th ed. eq. 6-54, p. 317; key ``shigley9_ssu``)."""
     return SHEAR_ULTIMATE_RATIO * ultimate_strength
 
 
@@ -169,14 +204,15 @@ def safety_factor(tau_a: float, tau_m: float, endurance: float, ultimate: float,
     n = 1/2 (S_u/m)^2 (a/S_e) [-1 + sqrt(1 + (2 m S_e/(S_u a))^2)];
     ASME-elliptic: 1/n^2 = (a/S_e)^2 + (m/S_y)^2; Soderberg: 1/n = a/S_e + m/S_y.
     Negative mean: for ``stress="shear"`` the sign of a shear stress only names the torque's
-    direction, so |tau_m| is used (the notes' rule below would be unconservative in torsion);
-    for ``stress="normal"`` a compressive mean gives n = S_e/a (notes §4.2, Shigley).
+    direction, so |tau_m| is used (Shigley's rule below would be unconservative in torsion;
+    docs/methods.md §7.2); for ``stress="normal"`` a compressive mean gives n = S_e/a
+    (Shigley 10th ed. §6-12).
 
     Parameters: tau_a, tau_m alternating and mean stress [Pa] (notch factor included);
     endurance S_se, ultimate S_su, yield_ S_sy [Pa]; criterion one of CRITERIA.
     Returns n [-] (inf for zero stress).
-    Source: Shigley 10th ed. §6-12, eqs. 6-41 (Goodman), Table 6-7 (Gerber, ASME-elliptic),
-    eq. 6-40 (Soderberg); key ``shigley10_criteria``.
+    Source: Shigley 9th ed. §6-12, p. 306, eqs. 6-45 (Soderberg), 6-46 (modified Goodman),
+    6-47 (Gerber), 6-48 (ASME-elliptic); key ``shigley9_criteria``.
     """
     if criterion not in CRITERIA:
         raise ValueError(f"unknown mean-stress criterion {criterion!r}; one of {CRITERIA}")
@@ -201,8 +237,8 @@ def safety_factor(tau_a: float, tau_m: float, endurance: float, ultimate: float,
 
 
 def langer_yield_safety(tau_a: float, tau_m: float, yield_: float) -> float:
-    """Langer first-cycle yield n_y = S_sy / (|tau_a| + |tau_m|) (Shigley eq. 6-43; key
-    ``shigley10_criteria``). Stresses [Pa]."""
+    """Langer first-cycle yield n_y = S_sy / (|tau_a| + |tau_m|) (Shigley 9th ed. eqs. 6-44 and
+    6-49, torsion form p. 347; key ``shigley9_criteria``). Stresses [Pa]."""
     peak = abs(tau_a) + abs(tau_m)
     return math.inf if peak == 0 else yield_ / peak
 
@@ -214,7 +250,8 @@ def equivalent_reversed_amplitude(tau_a, tau_m, ultimate: float, yield_: float,
     Goodman tau_ar = a/(1 - m/S_u); Gerber a/(1 - (m/S_u)^2); ASME-elliptic
     a/sqrt(1 - (m/S_y)^2); Soderberg a/(1 - m/S_y); m = |tau_m| (shear). Where the mean alone
     reaches the strength, tau_ar = inf. Vectorised over numpy arrays.
-    Source: Shigley 10th ed. §6-14, eq. 6-59 form (Goodman); key ``shigley10_basquin``.
+    Source: Shigley 9th ed. p. 347 (equivalent completely reversed stress, modified Goodman and
+    Gerber forms; Example 6-12); key ``shigley9_sn``.
     """
     a = np.abs(np.asarray(tau_a, dtype=float))
     m = np.abs(np.asarray(tau_m, dtype=float))
@@ -235,11 +272,13 @@ def equivalent_reversed_amplitude(tau_a, tau_m, ultimate: float, yield_: float,
 # --- finite life ------------------------------------------------------------------------------
 
 def fatigue_strength_fraction(ultimate_strength: float) -> tuple[float, bool]:
-    """Fraction f of S_ut at 10^3 cycles, and whether S_ut is inside the fit's range.
+    """Fraction f of S_ut at 10^3 cycles (bending), and whether S_ut is inside the fit's range.
 
     f = 1.06 - 2.8e-3 S + 6.9e-6 S^2 (S = S_ut in kpsi) for 70 < S <= 200 kpsi; f = 0.9 below
-    70 kpsi; above 200 kpsi the value at 200 kpsi is kept and flagged.
-    Source: Shigley (2024 release) eq. 6-11 / 10th ed. Fig. 6-18 fit; key ``shigley10_basquin``.
+    70 kpsi; above 200 kpsi the value at 200 kpsi is kept and flagged. Not used by the torsional
+    S-N line (which takes 0.9 S_su); kept for the bending recipe of :func:`basquin_torsion`.
+    Source: a fit of Shigley 9th ed. Fig. 6-18, p. 285 (the fit formula itself from later
+    editions, from memory); key ``shigley9_sn``.
     """
     s = ultimate_strength / KPSI
     if s < 70.0:
@@ -250,74 +289,136 @@ def fatigue_strength_fraction(ultimate_strength: float) -> tuple[float, bool]:
 
 @dataclass(frozen=True)
 class BasquinLine:
-    """Torsional S-N line S_f = a N^b, 10^3 <= N <= 10^6; a [Pa], b [-], endurance S_se [Pa]."""
+    """S-N line S_f = a N^b, 10^3 <= N <= 10^6; a [Pa], b [-], endurance S_se [Pa].
+
+    strength_1e3: the strength at 10^3 cycles [Pa]; f: its fraction of the reference ultimate
+    strength; f_in_range: whether that fraction came from inside its fit's range; label: the
+    convention's name, written into the output.
+    """
 
     a: float
     b: float
     endurance: float
     f: float
     f_in_range: bool
+    strength_1e3: float = math.nan
+    label: str = ""
+
+    def strength(self, cycles):
+        """S_f = a N^b [Pa] at N cycles (10^3 <= N <= 10^6; S_se beyond 10^6). Vectorised."""
+        n = np.asarray(cycles, dtype=float)
+        return np.where(n >= 1e6, self.endurance, self.a * n**self.b)
 
     def life(self, tau_ar):
         """Cycles to failure N = (tau_ar / a)^(1/b) at a fully reversed amplitude [Pa].
 
         Amplitudes at or below S_se: N = inf (the elementary Miner rule with an endurance
         cut-off: such cycles do no damage; non-conservative against the Haibach extension).
-        Above 10^3 cycles' strength the line is extrapolated down to N = 1 (no low-cycle model);
-        an infinite amplitude gives N = 1. Vectorised.
+        Amplitudes above the 10^3-cycle strength: N = NaN, **refused**: the stress-life line is
+        not extended below 10^3 cycles (low-cycle fatigue needs a strain-life method). An
+        infinite amplitude (mean stress at the strength) is refused too. Vectorised.
         """
         t = np.asarray(tau_ar, dtype=float)
+        top = self.strength_1e3 if math.isfinite(self.strength_1e3) else self.a * 1e3**self.b
         with np.errstate(divide="ignore", over="ignore", invalid="ignore"):
-            n = np.where(np.isfinite(t), (t / self.a) ** (1.0 / self.b), 1.0)
-        n = np.maximum(n, 1.0)
+            n = (t / self.a) ** (1.0 / self.b)
+        n = np.where(t > top * (1 + 1e-12), np.nan, np.maximum(n, 1e3))
         return np.where(t <= self.endurance, np.inf, n)
+
+    def curve(self, points: int = 40) -> tuple[tuple[float, float], ...]:
+        """(N, S_f) points of the line from 10^3 to 10^6 cycles [-, Pa], for charts."""
+        n = np.geomspace(1e3, 1e6, max(int(points), 2))
+        return tuple((float(x), float(y)) for x, y in zip(n, self.strength(n), strict=True))
+
+
+def sn_line(strength_1e3: float, endurance: float, *, f: float = math.nan,
+            f_in_range: bool = True, label: str = "") -> BasquinLine:
+    """Straight log-log S-N line through (10^3, S_1e3) and (10^6, S_se) [Pa].
+
+    a = S_1e3^2 / S_se, b = -(1/3) log10(S_1e3 / S_se) (Shigley 9th ed. eqs. 6-14 and 6-15 with
+    S_1e3 = f S_ut, p. 285); key ``shigley9_sn``.
+    """
+    if not strength_1e3 > endurance > 0:
+        raise ValueError("the 10^3-cycle strength must exceed the endurance limit > 0")
+    return BasquinLine(strength_1e3**2 / endurance, -math.log10(strength_1e3 / endurance) / 3.0,
+                       endurance, f, f_in_range, strength_1e3, label)
+
+
+TORSION_SN_LABEL = ("torsional S-N line from 0.9 S_su at 10^3 cycles to S_se at 10^6 "
+                    "(Juvinall & Marshek Table 8.1 / Norton S_m = 0.9 S_us, from memory; "
+                    "S_su = 0.67 S_ut of Shigley 9th ed. eq. 6-54)")
+
+
+def torsional_sn_line(ultimate_strength: float, shear_endurance: float) -> BasquinLine:
+    """Torsional S-N line: 0.9 S_su at 10^3 cycles to S_se at 10^6 cycles.
+
+    S_1e3 = 0.9 S_su, S_su = 0.67 S_ut; a = S_1e3^2 / S_se, b = -(1/3) log10(S_1e3 / S_se).
+    Parameters: ultimate_strength S_ut [Pa], shear_endurance S_se [Pa] (Marin-corrected).
+    Convention (module docstring): Juvinall & Marshek, *Fundamentals of Machine Component
+    Design*, Table 8.1 (torsion: 0.9 S_us at 10^3 cycles), and Norton, *Machine Design*
+    (S_m = 0.9 S_us), both from memory; key ``juvinall_torsion_sn``.
+
+    >>> line = torsional_sn_line(1000e6, 187.43e6)
+    >>> round(line.strength_1e3 / 1e6, 1), round(line.b, 5)
+    (603.0, -0.16916)
+    """
+    s1 = TORSION_1E3_FRACTION * shear_ultimate(ultimate_strength)
+    return sn_line(s1, shear_endurance, f=TORSION_1E3_FRACTION, label=TORSION_SN_LABEL)
 
 
 def basquin_torsion(ultimate_strength: float, shear_endurance: float) -> BasquinLine:
-    """Basquin line for torsion, Shigley's pure-shear recipe with S_su for S_ut.
+    """The earlier project construction: Shigley's bending recipe with S_su for S_ut.
 
-    a = (f S_su)^2 / S_se, b = -(1/3) log10(f S_su / S_se), S_su = 0.67 S_ut.
-    **Convention:** f is evaluated from S_ut (not S_su), as in the reference notes §4.3 checks.
-
+    a = (f S_su)^2 / S_se, b = -(1/3) log10(f S_su / S_se), f from S_ut (Fig. 6-18 fit). Not a
+    recipe printed by Shigley; **not used by the strength study** (which uses
+    :func:`torsional_sn_line`); kept so that the change of convention can be quantified.
     Parameters: ultimate_strength S_ut [Pa], shear_endurance S_se [Pa].
-    Source: Shigley 10th ed. eqs. 6-14, 6-15 and §6-13; key ``shigley10_basquin``.
-
-    >>> line = basquin_torsion(1000e6, 176.010e6)
-    >>> round(line.a / 1e6, 1), round(line.b, 5)       # notes §4.3 [C]: 1628.36, -0.161040
-    (1628.4, -0.16104)
     """
     f, ok = fatigue_strength_fraction(ultimate_strength)
     fs = f * shear_ultimate(ultimate_strength)
     if fs <= shear_endurance:
         raise ValueError("f S_su must exceed S_se for a Basquin line")
-    return BasquinLine(fs**2 / shear_endurance, -math.log10(fs / shear_endurance) / 3.0,
-                       shear_endurance, f, ok)
+    return sn_line(fs, shear_endurance, f=f, f_in_range=ok,
+                   label="project construction f(S_ut) S_su at 10^3 cycles (not used)")
 
 
 @dataclass(frozen=True)
 class MinerResult:
-    """Miner damage of a duty cycle: per bin and total; life in repeats of the whole spectrum."""
+    """Miner damage of a duty cycle: per bin and total; life in repeats of the whole spectrum.
+
+    A refused bin (equivalent amplitude above the 10^3-cycle strength) has life and damage NaN,
+    and makes the total NaN: the check then fails with the refusal as its message.
+    """
 
     amplitude: tuple[float, ...]  # equivalent fully reversed amplitude per bin [Pa]
-    life: tuple[float, ...]  # cycles to failure per bin [-] (inf below S_se)
+    life: tuple[float, ...]  # cycles to failure per bin [-] (inf below S_se, NaN refused)
     damage: tuple[float, ...]  # n_i / N_i per bin [-]
     total: float  # D [-]
     repeats: float  # 1 / D, spectrum repeats to D = 1 (inf when D = 0)
+    refused: tuple[bool, ...] = ()
+
+    @property
+    def any_refused(self) -> bool:
+        return any(self.refused)
 
 
 def miner_damage(tau_ar: Sequence[float], cycles: Sequence[float],
                  line: BasquinLine) -> MinerResult:
     """Palmgren-Miner damage D = sum n_i / N_i of fully reversed amplitude bins.
 
-    Parameters: tau_ar per bin [Pa], cycles n_i per bin [-], the Basquin line.
-    Source: Shigley 10th ed. §6-15, eq. 6-57; key ``shigley10_miner``.
+    Parameters: tau_ar per bin [Pa], cycles n_i per bin [-], the S-N line.
+    Source: Miner's rule as in Shigley 9th ed. §6-16 (cumulative fatigue damage, from memory
+    of the section number); key ``shigley9_miner``.
     """
     t = np.asarray(tau_ar, dtype=float)
     n = np.asarray(cycles, dtype=float)
     if t.shape != n.shape or np.any(n < 0):
         raise ValueError("amplitudes and cycles must match and cycles must be >= 0")
     life = line.life(t)
-    dmg = np.where(np.isinf(life), 0.0, n / life)
-    total = float(dmg.sum())
+    refused = np.isnan(life) & (n > 0)
+    dmg = np.where(np.isinf(life), 0.0, n / np.where(np.isnan(life), 1.0, life))
+    dmg = np.where(refused, np.nan, np.where(n == 0, 0.0, dmg))
+    total = float(np.nan if refused.any() else dmg.sum())
+    repeats = math.nan if math.isnan(total) else (math.inf if total == 0 else 1.0 / total)
     return MinerResult(tuple(map(float, t)), tuple(map(float, life)), tuple(map(float, dmg)),
-                       total, math.inf if total == 0 else 1.0 / total)
+                       total, repeats, tuple(bool(x) for x in refused))

@@ -9,9 +9,9 @@ Formulas (reference keys in :mod:`shaftcheck.model.references`):
 * tau = T r / J, twist theta = T L / (G J), stiffness k = G J / L (``roark7_t10_1``).
 * Segments in series carry one torque: 1/k = sum L_i / (G_i J_i) (``shigley_ch4_series``).
 * Spline stiffness: an equivalent round of diameter d_eq = d_minor + c (d_major - d_minor),
-  c = 0.25 by default; FE values for involute splines give c = 0.22 ... 0.32 (project notes
-  ``notes_spline_fe``, computed with sectionproperties). Stress at a spline uses the minor (root)
-  diameter, never d_eq (``notes_spline_fe``).
+  c = 0.25 by default; FE values for involute splines give c = 0.22 ... 0.32 (project rule,
+  computed with sectionproperties, docs/methods.md §1.3, ``spline_stiffness_diameter``). Stress
+  at a spline uses the minor (root) diameter, never d_eq.
 """
 
 from __future__ import annotations
@@ -20,7 +20,7 @@ import math
 from collections.abc import Sequence
 from dataclasses import dataclass
 
-from shaftcheck.methods.stress_concentration import SHARP_SHOULDER_KTS, shoulder_fillet_kts
+from shaftcheck.methods.stress_concentration import shoulder_fillet_kts
 
 SEGMENT_KINDS = ("solid", "tube", "spline")
 
@@ -38,7 +38,8 @@ class Segment:
     inner_diameter [m]: tube bore; 0 for solid and spline.
     minor_diameter [m]: spline root (minor) diameter; None otherwise.
     stiffness_diameter [m]: spline equivalent diameter for stiffness when given; None = rule.
-    fillet_radius [m]: fillet at the step into the next segment; None = not given.
+    fillet_radius [m]: radius of the fillets at this segment's ends where the diameter changes
+    (the step's radius, see :func:`step_concentrations`); None = not given.
     """
 
     kind: str
@@ -108,8 +109,8 @@ def spline_stiffness_diameter(major: float, minor: float,
                               fraction: float = SPLINE_STIFFNESS_FRACTION) -> float:
     """Equivalent round diameter of a spline for torsional stiffness [m].
 
-    d_eq = d_minor + c (d_major - d_minor), c = 0.25 by default (project notes §2.2, FE band
-    0.22 ... 0.32 for involute splines; ``notes_spline_fe``).
+    d_eq = d_minor + c (d_major - d_minor), c = 0.25 by default (project rule, FE band
+    0.22 ... 0.32 for involute splines; docs/methods.md §1.3, ``spline_stiffness_diameter``).
     """
     return minor + fraction * (major - minor)
 
@@ -119,7 +120,7 @@ def polar_moment(outer_diameter: float, inner_diameter: float = 0.0) -> float:
 
     Source: Roark 7th ed. Table 10.1 (``roark7_t10_1``).
 
-    >>> round(polar_moment(25e-3) * 1e12, 2)        # mm^4, notes §1 check value
+    >>> round(polar_moment(25e-3) * 1e12, 2)        # mm^4, hand calculation
     38349.52
     """
     return math.pi * (outer_diameter**4 - inner_diameter**4) / 32.0
@@ -128,7 +129,7 @@ def polar_moment(outer_diameter: float, inner_diameter: float = 0.0) -> float:
 def nominal_shear(torque: float, outer_diameter: float, inner_diameter: float = 0.0) -> float:
     """Nominal surface shear tau = 16 T D / (pi (D^4 - d_i^4)) [Pa] (``roark7_t10_1``).
 
-    >>> round(nominal_shear(1000.0, 25e-3) / 1e6, 2)   # notes §1: 325.95 MPa
+    >>> round(nominal_shear(1000.0, 25e-3) / 1e6, 2)   # hand calculation: 325.95 MPa
     325.95
     """
     return torque * (outer_diameter / 2.0) / polar_moment(outer_diameter, inner_diameter)
@@ -160,9 +161,20 @@ def compliance_shares(stiffnesses: Sequence[float]) -> list[float]:
     return [c / total for c in comp]
 
 
+#: fillet radius assumed where a step has none, as a fraction of the small diameter: the
+#: "sharp shoulder" r/d = 0.02 of Shigley 9th ed. Table 7-1 (first-iteration estimates)
+DEFAULT_FILLET_R_OVER_D = 0.02
+
+
 @dataclass(frozen=True)
 class StepConcentration:
-    """The shoulder-fillet concentration at the step between segment ``index`` and ``index + 1``."""
+    """The shoulder-fillet concentration at the step between segment ``index`` and ``index + 1``.
+
+    fillet_radius [m] is the radius used (given or default); radius_source "small" (given on
+    the smaller-diameter neighbour), "large" (given only on the larger one) or "default" (none
+    given: r = 0.02 d); notice is a sentence for the output when the radius was not simply
+    given on one side (default, or two different values), else "".
+    """
 
     index: int
     large_diameter: float  # [m]
@@ -172,18 +184,53 @@ class StepConcentration:
     kts: float
     valid: bool
     note: str
+    radius_source: str = "small"
+    notice: str = ""
+
+    @property
+    def default_radius(self) -> bool:
+        return self.radius_source == "default"
+
+
+def _step_radius(i: int, small_idx: int, segments, d: float, D: float):
+    """(r [m], source, notice) of the step between segments i and i + 1 (see
+    :func:`step_concentrations`)."""
+    large_idx = i + 1 if small_idx == i else i
+    r_small = segments[small_idx].fillet_radius
+    r_large = segments[large_idx].fillet_radius
+    where = f"step {i}->{i + 1}"
+    if r_small is not None:
+        notice = ""
+        if r_large is not None and not math.isclose(r_small, r_large, rel_tol=1e-9):
+            notice = (f"{where}: segment {small_idx} gives fillet radius {r_small * 1e3:.2f} mm "
+                      f"and segment {large_idx} {r_large * 1e3:.2f} mm; the smaller-diameter "
+                      f"segment's {r_small * 1e3:.2f} mm is used")
+        return r_small, "small", notice
+    if r_large is not None:
+        return r_large, "large", ""
+    r = DEFAULT_FILLET_R_OVER_D * d
+    return r, "default", (f"{where}: no fillet radius given; conservative default r = "
+                          f"{DEFAULT_FILLET_R_OVER_D:g} d = {r * 1e3:.2f} mm at D/d = {D / d:.3f}"
+                          " (Pilkey chart 3.12 fit at the sharp-shoulder r/d of Shigley Table "
+                          "7-1); give the drawing's radius")
 
 
 def step_concentrations(segments: Sequence[Segment]) -> list[StepConcentration]:
     """Shoulder-fillet K_ts at every diameter step of a stepped shaft.
 
-    The nominal stress is the one of the segment with the smaller stress diameter. The fillet
-    radius is the one given on the segment before the step. Rules (stated in the output):
+    The nominal stress is the one of the segment with the smaller stress diameter. **The fillet
+    radius belongs to the step**: a segment's ``fillet_radius`` is the radius of the fillets at
+    its ends where the diameter changes. At each step the radius is taken from the
+    smaller-diameter neighbour (the fillet runs out on the small diameter); if only the larger
+    neighbour gives one, that one is used; if both give different values, the smaller-diameter
+    neighbour's is used and a notice says so. Rules (stated in the output):
 
-    * fillet given, 0.25 <= t/r <= 4: Pilkey chart 3.12 fit (``pilkey2008_3_12``);
+    * radius known, 0.25 <= t/r <= 4: Pilkey chart 3.12 fit (``pilkey2008_3_12``);
     * fit outside its range: the fit value is kept and flagged (``valid = False``);
-    * no fillet given: Shigley Table 7-1 sharp-shoulder estimate K_ts = 2.2 (``shigley_t7_1``),
-      flagged;
+    * no radius on either neighbour: a conservative default r = 0.02 d (the sharp-shoulder r/d
+      of Shigley 9th ed. Table 7-1) with the chart 3.12 fit at that r, which depends on D/d;
+      beyond t/r = 4 (D/d > 1.16) the fit is extrapolated, which runs above the chart's curves
+      (conservative); always flagged with a notice;
     * the smaller side is a spline: no shoulder factor here, the spline root notch governs
       (strength module), noted.
     """
@@ -195,22 +242,22 @@ def step_concentrations(segments: Sequence[Segment]) -> list[StepConcentration]:
             continue
         small_idx = i if da < db else i + 1
         D, d = max(da, db), min(da, db)
-        r = a.fillet_radius
         small = segments[small_idx]
+        r, source, notice = _step_radius(i, small_idx, segments, d, D)
         if small.kind == "spline":
             out.append(StepConcentration(i, D, d, small_idx, r, 1.0, True,
-                                         "spline runout: the spline root notch factor governs"))
-            continue
-        if r is None:
-            out.append(StepConcentration(i, D, d, small_idx, None, SHARP_SHOULDER_KTS, False,
-                                         "no fillet radius given: sharp-shoulder estimate 2.2 "
-                                         "(Shigley Table 7-1)"))
+                                         "spline runout: the spline root notch factor governs",
+                                         source, ""))
             continue
         k = shoulder_fillet_kts(D, d, r)
-        note = k.note
+        notes = [k.note] if k.note else []
         if a.kind == "tube" or b.kind == "tube":
-            note = (note + "; " if note else "") + "solid-bar fit applied at a tube step"
-        out.append(StepConcentration(i, D, d, small_idx, r, k.value, k.valid, note))
+            notes.append("solid-bar fit applied at a tube step")
+        if source == "default":
+            notes.insert(0, "no fillet radius given: default r = 0.02 d")
+        valid = k.valid and source != "default"
+        out.append(StepConcentration(i, D, d, small_idx, r, k.value, valid, "; ".join(notes),
+                                     source, notice))
     return out
 
 

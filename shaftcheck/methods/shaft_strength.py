@@ -1,5 +1,6 @@
-"""Strength of one halfshaft: static shear, fatigue, duty-cycle damage, tube buckling, whirl and
-twist-off torques, each with its governing location and the reference keys of its method.
+"""Strength of one shaft: static shear (nominal and notch), fatigue, duty-cycle damage, tube
+buckling, whirl and twist-off torques, each with its governing location and the reference keys
+of its method.
 
 SI inside: lengths [m], torque [N*m], stress [Pa], speed [rad/s]. :meth:`ShaftStrength.to_dict`
 gives trade units (mm, N*m, MPa, rpm) and plain JSON types; an infinite value (no damage, zero
@@ -9,18 +10,25 @@ Sections assessed (segment index 0-based, inboard to outboard):
 
 * every solid or tube segment body, nominal shear on its diameter (K = 1);
 * every diameter step into a solid or tube segment: Pilkey chart 3.12 K_ts from
-  :func:`~shaftcheck.methods.sections.step_concentrations`
-  (sharp-shoulder 2.2 without a fillet radius),
-  K_fs = 1 + q_s (K_ts - 1) with the Neuber/Shigley q_s at the fillet radius (q_s = 1 without a
-  radius: Shigley's "K_f = K_t when in doubt");
-* every spline root: static check on the nominal shear at the minor (root) diameter, the
-  "shear under the roots" of ANSI B92.1 as given in Machinery's Handbook (``mh_spline_root``,
-  from memory); fatigue with the DIN 743-2 involute-spline notch factor beta_tau as K_fs
-  (beta_tau is a fatigue notch factor, not an elastic peak factor, so it is not used statically).
+  :func:`~shaftcheck.methods.sections.step_concentrations` (the radius belongs to the step:
+  from the smaller-diameter neighbour; a missing radius gets the D/d-dependent default r = 0.02 d
+  with a notice); K_fs = 1 + q_s (K_ts - 1) with the Neuber q_s of Shigley 9th ed. at the
+  fillet radius, q_s = 1 at a default radius ("K_f = K_t when in doubt");
+* every spline root: nominal shear at the minor (root) diameter; K_ts = K_fs = 3.0, an
+  **estimate** (Shigley 9th ed. Table 7-1 first-iteration value of comparable shaft features in
+  torsion; no verified spline chart), labelled in the output. DIN 743's spline factor stays in
+  DIN 743's own chain and is not used here.
 
-Static check: peak shear K_ts tau_nom against S_sy = 0.577 S_y (halfshaft practice checks yield
-at the notch root, notes §5). Fatigue: K_fs on alternating and mean shear (Shigley ch. 7), mean
-sign ignored in torsion (see :func:`shaftcheck.methods.fatigue.safety_factor`).
+**Static strength** (fillets, grooves and spline roots alike): for each load case the
+*nominal* safety S_sy / tau_nom at the weakest section (no stress concentration: ductile
+material under static load, Shigley 9th ed. §3-13 p. 111 and §5-2 p. 217) and the *notch
+first-yield* safety S_sy / (K_ts tau_nom) at the worst notch are both reported. **The criterion
+uses the nominal safety** (``StaticResult.safety``); the notch value shows where local yield
+starts and matters for a material of little ductility (e.g. a hard case).
+Fatigue: K_fs on alternating and mean shear (Shigley 9th ed. p. 347), mean sign ignored in
+torsion (see :func:`shaftcheck.methods.fatigue.safety_factor`); finite life on the torsional S-N
+line of :func:`shaftcheck.methods.fatigue.torsional_sn_line` (0.9 S_su at 10^3 cycles); bins
+below 10^3 cycles of life are refused, not extrapolated.
 """
 
 from __future__ import annotations
@@ -37,8 +45,8 @@ from shaftcheck.methods import whirl as wh
 from shaftcheck.methods.sections import Segment, nominal_shear, polar_moment, step_concentrations
 from shaftcheck.methods.stress_concentration import (
     fatigue_notch_factor,
-    involute_spline_beta_tau,
     notch_sensitivity_torsion,
+    spline_root_kts_estimate,
 )
 
 DEFAULT_RELIABILITY = 0.99  # k_e = 0.81389 with the exact normal quantile
@@ -70,6 +78,9 @@ class Section:
     notch_note: str
     references: tuple[str, ...]
     marin: fg.MarinFactors
+    notice: str = ""  # a step's default or conflicting radius, a spline estimate: for the output
+    estimate: bool = False  # the notch factor is an estimate (default radius, spline root)
+    fillet_radius: float | None = None  # [m] radius used at a step
 
     def shear(self, torque):
         """Nominal shear at ``torque`` [N*m] -> [Pa] (vectorised)."""
@@ -89,11 +100,12 @@ def shaft_sections(segments: Sequence[Segment], material,
     sut = material.ultimate_strength
     for i, s in enumerate(segments):
         if s.kind == "spline":
-            beta = involute_spline_beta_tau(sut, s.minor_diameter)
+            est = spline_root_kts_estimate()
             out.append(Section(Location(i, s.kind, "spline root"), s.minor_diameter,
-                               s.inner_diameter, 1.0, beta.value, beta.valid, beta.note,
-                               ("din743_2", "mh_spline_root"),
-                               _marin(material, s.minor_diameter, reliability)))
+                               s.inner_diameter, est.value, est.value, est.valid, est.note,
+                               ("shigley9_t7_1",),
+                               _marin(material, s.minor_diameter, reliability),
+                               f"segment {i} spline root: {est.note}", True))
         else:
             out.append(Section(Location(i, s.kind, "body"), s.outer_diameter, s.inner_diameter,
                                1.0, 1.0, True, "", ("roark7_t10_1",),
@@ -102,16 +114,18 @@ def shaft_sections(segments: Sequence[Segment], material,
         small = segments[st.small_index]
         if small.kind == "spline":
             continue  # the spline root notch governs (sections.step_concentrations note)
-        if st.fillet_radius is None:
-            q, refs, note_q = 1.0, ("shigley_t7_1",), "q_s = 1 (no fillet radius)"
+        if st.default_radius:
+            q, refs, note_q = 1.0, ("pilkey2008_3_12", "shigley9_t7_1"), \
+                "q_s = 1 (default radius)"
         else:
             qs = notch_sensitivity_torsion(sut, st.fillet_radius)
-            q, refs, note_q = qs.value, ("pilkey2008_3_12", "shigley10_notch"), qs.note
+            q, refs, note_q = qs.value, ("pilkey2008_3_12", "shigley9_notch"), qs.note
         note = "; ".join(n for n in (st.note, note_q) if n)
         out.append(Section(Location(st.small_index, small.kind, f"step {st.index}->{st.index + 1}"),
                            st.small_diameter, small.inner_diameter, st.kts,
                            fatigue_notch_factor(st.kts, q), st.valid, note, refs,
-                           _marin(material, st.small_diameter, reliability)))
+                           _marin(material, st.small_diameter, reliability), st.notice,
+                           st.default_radius, st.fillet_radius))
     return out
 
 
@@ -119,15 +133,28 @@ def shaft_sections(segments: Sequence[Segment], material,
 
 @dataclass(frozen=True)
 class StaticResult:
-    """Governing static shear of one load case: peak shear (K_ts included) vs S_sy."""
+    """Static shear of one load case: nominal safety (the criterion) and notch first-yield safety.
+
+    location, nominal_shear [Pa], nominal_safety = S_sy / tau_nom at the weakest section (no
+    stress concentration); notch_location, kts, shear = K_ts tau_nom [Pa] and notch_safety =
+    S_sy / shear at the worst notch (first yield at the notch root).
+    """
 
     case: str
     torque: float  # [N*m]
     location: Location
+    nominal_shear: float  # [Pa]
+    nominal_safety: float
+    notch_location: Location
     kts: float
-    shear: float  # peak [Pa]
-    safety: float  # S_sy / shear
+    shear: float  # peak K_ts tau_nom [Pa]
+    notch_safety: float
     references: tuple[str, ...]
+
+    @property
+    def safety(self) -> float:
+        """The safety the criterion uses: the nominal one (module docstring)."""
+        return self.nominal_safety
 
 
 @dataclass(frozen=True)
@@ -147,20 +174,51 @@ class FatigueResult:
 
 @dataclass(frozen=True)
 class DamageResult:
-    """Miner damage of the spectrum at the section with the largest total damage."""
+    """Miner damage of the spectrum at the section with the largest total damage.
+
+    tau_a, tau_m [Pa] per bin (K_fs included); amplitude: equivalent fully reversed [Pa]; life
+    [cycles] (inf below S_se, NaN refused); refused: bins whose life would be below 10^3 cycles;
+    line: the S-N line used (a [Pa], b, 10^3-cycle strength [Pa], endurance [Pa], label).
+    """
 
     location: Location
-    amplitude: tuple[float, ...]  # equivalent fully reversed [Pa]
-    life: tuple[float, ...]  # cycles to failure [-], inf below S_se
+    amplitude: tuple[float, ...]
+    life: tuple[float, ...]
     damage: tuple[float, ...]
     total: float
-    repeats: float  # spectrum repeats to D = 1
+    repeats: float
     references: tuple[str, ...]
+    tau_a: tuple[float, ...] = ()
+    tau_m: tuple[float, ...] = ()
+    refused: tuple[bool, ...] = ()
+    line: fg.BasquinLine | None = None
+
+    @property
+    def any_refused(self) -> bool:
+        return any(self.refused)
+
+
+@dataclass(frozen=True)
+class SectionMargin:
+    """Margins of one section: nominal and notch static safety at the largest load case,
+    infinite-life fatigue safety at its worst bin and its Miner damage."""
+
+    location: Location
+    kts: float
+    kfs: float
+    nominal_safety: float
+    notch_safety: float
+    fatigue_safety: float  # inf without a spectrum
+    damage: float  # 0 without a spectrum, NaN when a bin is refused
 
 
 @dataclass(frozen=True)
 class BucklingResult:
-    """EN 1993-1-6 elastic torsional buckling of one tube segment at the largest torque."""
+    """EN 1993-1-6 torsional buckling of one tube segment at the largest torque.
+
+    safety = tau_Rk / tau with tau_Rk = chi f_yk/sqrt 3 (elastic-plastic reduction);
+    elastic_safety = tau_cr / tau (the earlier elastic check, for comparison).
+    """
 
     location: Location
     torque: float  # [N*m]
@@ -172,8 +230,10 @@ class BucklingResult:
     exemption_limit: float  # EN D.54 r/t limit with f_yk = S_y
     classical_long: float  # [Pa]
     donnell: float  # [Pa]
-    safety: float  # tau_cr / shear
+    safety: float  # tau_Rk / shear
     references: tuple[str, ...] = ("en1993_1_6_d", "timoshenko_gere_11_12", "donnell_1933")
+    elastic_safety: float = math.nan  # tau_cr / shear
+    resistance: bk.ShearBucklingResistance | None = None
 
     @property
     def exempt(self) -> bool:
@@ -183,13 +243,19 @@ class BucklingResult:
 
 @dataclass(frozen=True)
 class WhirlResult:
-    """First bending critical speed, pinned at the joint centres, and its margin."""
+    """First bending critical speed on pinned supports at the joint centres, and its margin.
+
+    supports: positions of the two supports [m] from the inboard end of the first segment
+    (negative or beyond the bar when the joint centre lies outside it).
+    """
 
     critical_speed: float  # [rad/s]
     max_speed: float  # [rad/s]
     margin: float  # critical / max
     dunkerley: float | None  # [rad/s] lower bound when masses are present
     references: tuple[str, ...] = ("fe_hermite_beam", "blevins_t8_1")
+    supports: tuple[float, float] = (math.nan, math.nan)
+    span: float = math.nan  # distance between the supports [m]
 
 
 @dataclass(frozen=True)
@@ -209,7 +275,7 @@ class ShaftStrength:
     """All strength results of one shaft; SI inside, :meth:`to_dict` in trade units."""
 
     sections: tuple[Section, ...]
-    static: tuple[StaticResult, ...]  # governing section per load case
+    static: tuple[StaticResult, ...]  # governing sections per load case
     fatigue: FatigueResult | None  # None without a spectrum
     damage: DamageResult | None
     buckling: tuple[BucklingResult, ...]
@@ -220,10 +286,16 @@ class ShaftStrength:
     shear_yield: float  # [Pa]
     shear_ultimate: float  # [Pa]
     notes: tuple[str, ...] = field(default=())
+    margins: tuple[SectionMargin, ...] = ()
+    notices: tuple[str, ...] = ()  # default radii, conflicting radii, estimates, refusals
 
     @property
     def static_governing(self) -> StaticResult:
         return min(self.static, key=lambda r: r.safety)
+
+    @property
+    def notch_governing(self) -> StaticResult:
+        return min(self.static, key=lambda r: r.notch_safety)
 
     @property
     def buckling_governing(self) -> BucklingResult | None:
@@ -236,15 +308,21 @@ class ShaftStrength:
 
 # --- the checks -------------------------------------------------------------------------------
 
+def _safety(strength: float, stress: float) -> float:
+    return math.inf if stress == 0 else strength / stress
+
+
 def _static(sections, load_cases: Mapping[str, float], ssy: float) -> tuple[StaticResult, ...]:
     out = []
     for name, torque in load_cases.items():
-        peak = [s.kts * float(s.shear(abs(torque))) for s in sections]
-        j = int(np.argmax(peak))
-        s = sections[j]
-        out.append(StaticResult(name, float(torque), s.location, s.kts, peak[j],
-                                math.inf if peak[j] == 0 else ssy / peak[j],
-                                s.references + ("shigley_ch5_de",)))
+        nominal = [float(s.shear(abs(torque))) for s in sections]
+        peak = [s.kts * t for s, t in zip(sections, nominal, strict=True)]
+        j, k = int(np.argmax(nominal)), int(np.argmax(peak))
+        out.append(StaticResult(name, float(torque), sections[j].location, nominal[j],
+                                _safety(ssy, nominal[j]), sections[k].location,
+                                sections[k].kts, peak[k], _safety(ssy, peak[k]),
+                                sections[k].references + ("shigley9_static_kt",
+                                                          "shigley_ch5_de")))
     return tuple(out)
 
 
@@ -257,11 +335,12 @@ def _spectrum_arrays(spectrum):
 
 
 def _fatigue(sections, spectrum, material, criterion):
+    """(governing FatigueResult, worst DamageResult, per-section (safety, damage))."""
     ta, tm, cycles = _spectrum_arrays(spectrum)
     ssu = fg.shear_ultimate(material.ultimate_strength)
     ssy = fg.shear_yield(material.yield_strength)
-    refs = ("shigley10_marin", "shigley10_criteria", "shigley_ssu")
-    best, worst_d = None, None
+    refs = ("shigley9_marin", "shigley9_criteria", "shigley9_ssu")
+    best, worst_d, per = None, None, []
     for s in sections:
         sse = s.marin.shear_endurance
         tau_a, tau_m = s.kfs * s.shear(ta), s.kfs * s.shear(tm)
@@ -272,11 +351,18 @@ def _fatigue(sections, spectrum, material, criterion):
             best = FatigueResult(s.location, k, s.kfs, float(tau_a[k]), float(tau_m[k]), sse,
                                  n[k], criterion, s.references + refs)
         tar = fg.equivalent_reversed_amplitude(tau_a, tau_m, ssu, ssy, criterion)
-        m = fg.miner_damage(tar, cycles, fg.basquin_torsion(material.ultimate_strength, sse))
-        if worst_d is None or m.total > worst_d.total:
-            worst_d = DamageResult(s.location, m.amplitude, m.life, m.damage, m.total, m.repeats,
-                                   s.references + ("shigley10_basquin", "shigley10_miner"))
-    return best, worst_d
+        line = fg.torsional_sn_line(material.ultimate_strength, sse)
+        m = fg.miner_damage(tar, cycles, line)
+        per.append((n[k], m.total))
+        worse = (worst_d is None or (m.any_refused and not worst_d.any_refused)
+                 or (m.any_refused == worst_d.any_refused and m.total > worst_d.total))
+        if worse:
+            worst_d = DamageResult(s.location, m.amplitude, m.life, m.damage, m.total,
+                                   m.repeats, s.references + ("juvinall_torsion_sn",
+                                                              "shigley9_sn", "shigley9_miner"),
+                                   tuple(map(float, tau_a)), tuple(map(float, tau_m)),
+                                   m.refused, line)
+    return best, worst_d, per
 
 
 def infinite_life_fatigue(sections: Sequence[Section], spectrum, material,
@@ -287,39 +373,50 @@ def infinite_life_fatigue(sections: Sequence[Section], spectrum, material,
     return _fatigue(sections, spectrum, material, criterion)[0]
 
 
-def _buckling(segments, material, torque: float) -> tuple[BucklingResult, ...]:
+def _buckling(segments, material, torque: float,
+              quality_class: str) -> tuple[BucklingResult, ...]:
     out = []
     E, nu = material.elastic_modulus, material.poisson_ratio
-    limit = bk.en1993_exemption_limit(E, material.yield_strength)
+    fy = material.yield_strength
+    limit = bk.en1993_exemption_limit(E, fy)
     for i, s in enumerate(segments):
         if s.kind != "tube":
             continue
         r, t = bk.mid_surface_radius(s.outer_diameter, s.inner_diameter)
         en = bk.en1993_critical_shear(s.length, r, t, E)
+        res = bk.en1993_shear_resistance(en.tau_cr, fy, r, t, quality_class)
         tau = float(nominal_shear(torque, s.outer_diameter, s.inner_diameter))
         out.append(BucklingResult(Location(i, "tube", "body"), torque, tau, en.tau_cr, en.regime,
                                   en.omega, en.r_over_t, limit,
                                   bk.classical_long_tube_shear(r, t, E, nu),
                                   bk.donnell_shear(s.length, r, t, E, nu),
-                                  math.inf if tau == 0 else en.tau_cr / tau))
+                                  _safety(res.resistance, tau),
+                                  elastic_safety=_safety(en.tau_cr, tau), resistance=res))
     return tuple(out)
 
 
-def _whirl(segments, material, max_speed, joint_masses, extra_length, point_masses):
-    if min(extra_length) < 0:
-        raise ValueError("extra_length must be >= 0")
+def _whirl(segments, material, max_speed, joint_masses, supports, point_masses):
+    """Whirl on pinned supports at ``supports`` (positions [m] from the inboard end of the
+    first segment; the bar is extended with its end sections where a support lies outside)."""
     spans = wh.spans_from_segments(segments, material.elastic_modulus, material.density)
-    ext = [wh.BeamSpan(e, sp.bending_stiffness, sp.mass_per_length)
-           for e, sp in ((extra_length[0], spans[0]), (extra_length[1], spans[-1]))]
-    spans = ([ext[0]] if extra_length[0] > 0 else []) + spans + (
-        [ext[1]] if extra_length[1] > 0 else [])
-    total = sum(s.length for s in spans)
-    masses = [(0.0, joint_masses[0]), (total, joint_masses[1])]
-    masses += [(x + extra_length[0], m) for x, m in point_masses]
+    bar = sum(s.length for s in segments)
+    s0, s1 = (0.0, bar) if supports is None else (float(supports[0]), float(supports[1]))
+    if not s1 > s0:
+        raise ValueError("whirl supports must be two increasing positions")
+    ext_in, ext_out = max(0.0, -s0), max(0.0, s1 - bar)
+    if ext_in > 0:
+        spans = [wh.BeamSpan(ext_in, spans[0].bending_stiffness, spans[0].mass_per_length)] + spans
+    if ext_out > 0:
+        spans = spans + [wh.BeamSpan(ext_out, spans[-1].bending_stiffness,
+                                     spans[-1].mass_per_length)]
+    a, b = s0 + ext_in, s1 + ext_in
+    masses = [(a, joint_masses[0]), (b, joint_masses[1])]
+    masses += [(x + ext_in, m) for x, m in point_masses]
     masses = [(x, m) for x, m in masses if m > 0]
-    w = wh.first_critical_speed(spans, masses)
-    dk = wh.dunkerley_critical_speed(spans, masses) if masses else None
-    return WhirlResult(w, max_speed, math.inf if max_speed == 0 else w / max_speed, dk)
+    w = wh.first_critical_speed(spans, masses, supports=(a, b))
+    dk = wh.dunkerley_critical_speed(spans, masses, supports=(a, b)) if masses else None
+    return WhirlResult(w, max_speed, math.inf if max_speed == 0 else w / max_speed, dk,
+                       supports=(s0, s1), span=s1 - s0)
 
 
 def _plastic(sections, ssy: float) -> PlasticResult:
@@ -336,12 +433,24 @@ def _plastic(sections, ssy: float) -> PlasticResult:
                          notch.location)
 
 
+def _margins(sections, load_cases, ssy, per_fatigue) -> tuple[SectionMargin, ...]:
+    tmax = max(abs(t) for t in load_cases.values())
+    out = []
+    for i, s in enumerate(sections):
+        tau = float(s.shear(tmax))
+        fs, dmg = per_fatigue[i] if per_fatigue else (math.inf, 0.0)
+        out.append(SectionMargin(s.location, s.kts, s.kfs, _safety(ssy, tau),
+                                 _safety(ssy, s.kts * tau), fs, dmg))
+    return tuple(out)
+
+
 def assess_shaft(segments: Sequence[Segment], material, load_cases: Mapping[str, float],
                  spectrum: Sequence[tuple[float, float, float]], max_shaft_speed: float, *,
                  mean_stress: str = "goodman", reliability: float = DEFAULT_RELIABILITY,
                  joint_masses: tuple[float, float] = (0.0, 0.0),
-                 extra_length: tuple[float, float] = (0.0, 0.0),
-                 point_masses: Sequence[tuple[float, float]] = ()) -> ShaftStrength:
+                 whirl_supports: tuple[float, float] | None = None,
+                 point_masses: Sequence[tuple[float, float]] = (),
+                 quality_class: str = bk.DEFAULT_QUALITY_CLASS) -> ShaftStrength:
     """Assess one shaft.
 
     Parameters:
@@ -353,11 +462,14 @@ def assess_shaft(segments: Sequence[Segment], material, load_cases: Mapping[str,
       mean_stress: "goodman" (default) | "gerber" | "asme_elliptic" | "soderberg"; used for the
         infinite-life safety and for the equivalent fully reversed amplitude of each bin.
       reliability: for the Marin k_e (default 0.99, k_e = 0.81389).
-      joint_masses: (inboard, outboard) [kg] lumped at the joint centres (the pinned supports;
-        on pinned supports they do not change the first bending mode, the support takes them).
-      extra_length: (inboard, outboard) [m] from each joint centre to the end of the segment
-        chain, modelled with the adjacent end segment's section (whirl only).
+      joint_masses: (inboard, outboard) [kg] lumped at the supports (on pinned supports they do
+        not change the first bending mode, the support takes them).
+      whirl_supports: positions [m] of the two pinned whirl supports from the inboard end of the
+        first segment: the joint centres (halfshaft) or the output support and the bearing
+        (intermediate shaft); None = the bar ends. A support outside the bar extends it with
+        the adjacent end segment's section (the stub inside the joint).
       point_masses: further (x [m] from the inboard end of the first segment, mass [kg]).
+      quality_class: EN 1993-1-6 fabrication quality class of tubes, "A" | "B" | "C".
     """
     if not segments:
         raise ValueError("a shaft needs at least one segment")
@@ -368,24 +480,35 @@ def assess_shaft(segments: Sequence[Segment], material, load_cases: Mapping[str,
     ssy = fg.shear_yield(material.yield_strength)
     sections = shaft_sections(segments, material, reliability)
     static = _static(sections, load_cases, ssy)
-    fat, dmg = (_fatigue(sections, spectrum, material, mean_stress)
-                if len(spectrum) else (None, None))
+    fat, dmg, per = (_fatigue(sections, spectrum, material, mean_stress)
+                     if len(spectrum) else (None, None, []))
     tmax = max(abs(t) for t in load_cases.values())
     notes = tuple(f"{s.location.where} of segment {s.location.segment}: {s.notch_note}"
                   for s in sections if s.notch_note)
+    notices = list(dict.fromkeys(s.notice for s in sections if s.notice))
+    if dmg is not None and dmg.any_refused:
+        bins = [i for i, r in enumerate(dmg.refused) if r]
+        notices.append(
+            f"duty-cycle bins {bins} refused at {dmg.location.where} of segment "
+            f"{dmg.location.segment}: equivalent amplitude above 0.9 S_su = "
+            f"{dmg.line.strength_1e3 / 1e6:.0f} MPa, life below 10^3 cycles, outside the "
+            "stress-life method (low-cycle fatigue needs a strain-life assessment)")
     return ShaftStrength(
-        tuple(sections), static, fat, dmg, _buckling(segments, material, tmax),
-        _whirl(segments, material, max_shaft_speed, joint_masses, extra_length, point_masses),
+        tuple(sections), static, fat, dmg,
+        _buckling(segments, material, tmax, quality_class),
+        _whirl(segments, material, max_shaft_speed, joint_masses, whirl_supports,
+               point_masses),
         _plastic(sections, ssy), mean_stress, reliability, ssy,
-        fg.shear_ultimate(material.ultimate_strength), notes)
+        fg.shear_ultimate(material.ultimate_strength), notes,
+        _margins(sections, load_cases, ssy, per), tuple(notices))
 
 
 # --- trade-unit dictionary ---------------------------------------------------------------------
 
 def _num(x, scale: float = 1.0):
-    """A float scaled to trade units, ``None`` when infinite."""
+    """A float scaled to trade units, ``None`` when infinite or NaN."""
     x = float(x)
-    return None if math.isinf(x) else x * scale
+    return None if not math.isfinite(x) else x * scale
 
 
 def _nums(xs, scale: float = 1.0) -> list:
@@ -399,6 +522,8 @@ def _section_dict(s: Section) -> dict:
     return {"location": s.location.to_dict(), "diameter_mm": s.outer_diameter * MM,
             "inner_diameter_mm": s.inner_diameter * MM, "kts": s.kts, "kfs": s.kfs,
             "notch_valid": s.notch_valid, "notch_note": s.notch_note,
+            "notch_estimate": s.estimate, "notice": s.notice,
+            "fillet_radius_mm": None if s.fillet_radius is None else s.fillet_radius * MM,
             "shear_endurance_mpa": s.marin.shear_endurance * MPA,
             "marin": {"ka": s.marin.ka, "kb": s.marin.kb, "kc": s.marin.kc, "kd": s.marin.kd,
                       "ke": s.marin.ke},
@@ -407,7 +532,10 @@ def _section_dict(s: Section) -> dict:
 
 def _static_dict(r: StaticResult) -> dict:
     return {"case": r.case, "torque_nm": r.torque, "location": r.location.to_dict(),
-            "kts": r.kts, "max_shear_mpa": r.shear * MPA, "safety": _num(r.safety),
+            "nominal_shear_mpa": r.nominal_shear * MPA, "nominal_safety": _num(r.nominal_safety),
+            "notch_location": r.notch_location.to_dict(), "kts": r.kts,
+            "max_shear_mpa": r.shear * MPA, "notch_safety": _num(r.notch_safety),
+            "safety": _num(r.safety), "criterion_uses": "nominal",
             "references": list(r.references)}
 
 
@@ -423,18 +551,37 @@ def _fatigue_dict(r: FatigueResult | None) -> dict | None:
 def _damage_dict(r: DamageResult | None) -> dict | None:
     if r is None:
         return None
+    line = r.line
     return {"location": r.location.to_dict(), "amplitude_mpa": _nums(r.amplitude, MPA),
-            "life_cycles": _nums(r.life), "damage": list(r.damage), "total": r.total,
-            "repeats": _num(r.repeats), "references": list(r.references)}
+            "tau_a_mpa": _nums(r.tau_a, MPA), "tau_m_mpa": _nums(r.tau_m, MPA),
+            "life_cycles": _nums(r.life), "damage": _nums(r.damage), "total": _num(r.total),
+            "repeats": _num(r.repeats), "refused_bins": [i for i, x in enumerate(r.refused) if x],
+            "sn_line": None if line is None else {
+                "a_mpa": line.a * MPA, "b": line.b, "strength_1e3_mpa": line.strength_1e3 * MPA,
+                "endurance_mpa": line.endurance * MPA, "convention": line.label},
+            "references": list(r.references)}
 
 
 def _buckling_dict(r: BucklingResult) -> dict:
+    res = r.resistance
     return {"location": r.location.to_dict(), "torque_nm": r.torque, "shear_mpa": r.shear * MPA,
             "tau_cr_mpa": r.tau_cr * MPA, "regime": r.regime, "omega": r.omega,
             "r_over_t": r.r_over_t, "exemption_limit_r_over_t": r.exemption_limit,
             "exempt": r.exempt, "classical_long_mpa": r.classical_long * MPA,
             "donnell_mpa": r.donnell * MPA, "safety": _num(r.safety),
+            "elastic_safety": _num(r.elastic_safety),
+            "plastic_reduction": None if res is None else {
+                "slenderness": res.slenderness, "alpha": res.alpha,
+                "plastic_slenderness": res.plastic_slenderness, "chi": res.chi,
+                "regime": res.regime, "tau_rk_mpa": res.resistance * MPA,
+                "quality_class": res.quality_class},
             "references": list(r.references)}
+
+
+def _margin_dict(m: SectionMargin) -> dict:
+    return {"location": m.location.to_dict(), "kts": m.kts, "kfs": m.kfs,
+            "nominal_safety": _num(m.nominal_safety), "notch_safety": _num(m.notch_safety),
+            "fatigue_safety": _num(m.fatigue_safety), "damage": _num(m.damage)}
 
 
 def _strength_dict(st: ShaftStrength) -> dict:
@@ -445,11 +592,13 @@ def _strength_dict(st: ShaftStrength) -> dict:
         "sections": [_section_dict(s) for s in st.sections],
         "static": [_static_dict(r) for r in st.static],
         "static_governing": _static_dict(st.static_governing),
+        "notch_governing": _static_dict(st.notch_governing),
         "fatigue": _fatigue_dict(st.fatigue), "damage": _damage_dict(st.damage),
         "buckling": [_buckling_dict(b) for b in st.buckling],
         "whirl": {"critical_speed_rpm": w.critical_speed * RPM,
                   "max_speed_rpm": w.max_speed * RPM, "margin": _num(w.margin),
                   "dunkerley_rpm": None if w.dunkerley is None else w.dunkerley * RPM,
+                  "supports_mm": _nums(w.supports, MM), "span_mm": _num(w.span, MM),
                   "references": list(w.references)},
         "plastic": {"location": p.location.to_dict(), "first_yield_torque_nm": p.first_yield_torque,
                     "plastic_torque_nm": p.plastic_torque,
@@ -457,5 +606,7 @@ def _strength_dict(st: ShaftStrength) -> dict:
                     "notch_location": p.notch_location.to_dict(),
                     "model": "elastic-perfectly-plastic estimate, tau_y = S_sy",
                     "references": list(p.references)},
+        "margins": [_margin_dict(m) for m in st.margins],
         "notes": list(st.notes),
+        "notices": list(st.notices),
     }

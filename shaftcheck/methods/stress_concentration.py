@@ -56,7 +56,9 @@ def shoulder_fillet_kts(D: float, d: float, r: float) -> Kts:
     return Kts(value, valid, note)
 
 
-# Shigley, Table 7-1, first-iteration estimate for a sharp shoulder fillet (r/d = 0.02).
+# Shigley 9th ed. Table 7-1, first-iteration estimate for a sharp shoulder fillet (r/d = 0.02).
+# Kept as a published comparison value; a step without a radius now gets the D/d-dependent
+# default of :func:`shaftcheck.methods.sections.step_concentrations`.
 SHARP_SHOULDER_KTS = 2.2
 
 
@@ -67,7 +69,8 @@ U_GROOVE_FIT_T_OVER_R = (0.25, 50.0)
 
 
 def _u_groove_coefficients(x: float) -> tuple[float, float, float, float]:
-    """C1..C4 of the Pilkey U-groove torsion fit for x = t/r (both branches, notes §3.2)."""
+    """C1..C4 of the Pilkey U-groove torsion fit for x = t/r (both branches, docs/methods.md
+    §6.2)."""
     sx = math.sqrt(x)
     if x <= 2.0:
         return (0.966 + 1.056 * sx - 0.022 * x,
@@ -89,8 +92,8 @@ def u_groove_kts(D: float, d: float, r: float) -> Kts:
     2 < x <= 50: C1 = 1.089 + 0.924 sqrt(x) + 0.018 x, C2 = -1.504 - 2.141 sqrt(x) - 0.047 x,
     C3 = 2.486 + 2.289 sqrt(x) + 0.091 x, C4 = -1.056 - 1.104 sqrt(x) - 0.059 x.
     The factor multiplies the nominal shear on the groove-root diameter d, 16 T / (pi d^3).
-    Signs as settled in the reference notes §3.2 (y = 1 limit near 1, branches continuous at
-    x = 2 within 0.6 %).
+    Two open-source transcriptions disagree in two signs; the signs used give a y = 1 limit near
+    1 and branches continuous at x = 2 within 0.6 % (docs/methods.md §6.2).
 
     Parameters: D outside diameter [m], d groove-root diameter [m], r groove radius [m].
     Valid for 0.25 <= t/r <= 50; outside, the fit value is returned with ``valid`` False.
@@ -99,7 +102,7 @@ def u_groove_kts(D: float, d: float, r: float) -> Kts:
     (2008), ch. 2, U-groove in torsion (chart number probably 2.49, from memory). Key
     ``pilkey2008_u_groove``.
 
-    >>> round(u_groove_kts(30e-3, 28e-3, 0.5e-3).value, 4)   # notes §3.2 [C]
+    >>> round(u_groove_kts(30e-3, 28e-3, 0.5e-3).value, 4)   # regression value of the fit
     2.1371
     """
     if not (D > d > 0 and r > 0):
@@ -130,7 +133,7 @@ def din743_form_factor_torsion(D: float, d: float, r: float, feature: str = "sho
     alpha_tau = 1 + 1 / sqrt(A r/t + 2 B (r/d)(1 + 2 r/d)^2 + C (r/t)^z d/D), t = (D - d)/2;
     torsion: shoulder A = 3.4, B = 19, C = 1, z = 2; U-groove A = 0.7, B = 10.3, C = 0.
     Nominal stress on the small diameter d. An independent cross-check of the Pilkey fits
-    (agreement about 3 %, notes §3.1).
+    (agreement about 3 %, docs/methods.md §6.3).
 
     Parameters: D large diameter [m], d small (root) diameter [m], r radius [m];
     feature "shoulder" | "u_groove".
@@ -138,7 +141,7 @@ def din743_form_factor_torsion(D: float, d: float, r: float, feature: str = "sho
     Source: DIN 743-2:2012, form factors for shoulders and grooves, as implemented in an
     open-source student implementation (not the standard's text; verify). Key ``din743_2``.
 
-    >>> round(din743_form_factor_torsion(37.5e-3, 25e-3, 2.5e-3), 4)   # notes §3.1 [C]
+    >>> round(din743_form_factor_torsion(37.5e-3, 25e-3, 2.5e-3), 4)   # regression value
     1.3796
     """
     if feature not in DIN743_TORSION_CONSTANTS:
@@ -184,7 +187,7 @@ def notch_sensitivity_torsion(ultimate_strength: float, r: float) -> Kts:
 
     Source: Shigley 10th ed. §6-10, eqs. 6-33 and 6-35b; key ``shigley10_notch``.
 
-    >>> round(notch_sensitivity_torsion(700e6, 1e-3).value, 4)   # notes §3.4 [C]
+    >>> round(notch_sensitivity_torsion(700e6, 1e-3).value, 4)   # regression value of the fit
     0.8105
     """
     if ultimate_strength <= 0 or r <= 0:
@@ -228,8 +231,34 @@ def din743_k3(d: float, beta: float) -> float:
     return 1.0 - 0.2 * math.log10(beta) * lg_ratio
 
 
+#: Estimated elastic stress-concentration factor at an external spline root in torsion, on the
+#: nominal shear at the root (minor) diameter. **An estimate, not a published spline value**:
+#: basis Shigley 9th ed. Table 7-1 (first-iteration estimates), which gives K_ts = 3.0 for the
+#: comparable shaft features it lists in torsion (end-milled keyseat, retaining-ring groove);
+#: no verified chart for involute spline roots was available to the project.
+SPLINE_ROOT_KTS_ESTIMATE = 3.0
+
+
+def spline_root_kts_estimate() -> Kts:
+    """Estimated K_ts of an external spline root in torsion (nominal shear on the root diameter).
+
+    K_ts = 3.0, the first-iteration torsion estimate of Shigley 9th ed. Table 7-1 for keyseats
+    and ring grooves, used for a spline root whose fillet is not known; labelled an estimate in
+    the output. The fatigue factor is taken equal (q = 1, radius unknown: Shigley "K_f = K_t
+    when in doubt"). Key ``shigley9_t7_1``.
+    """
+    return Kts(SPLINE_ROOT_KTS_ESTIMATE, False,
+               "spline root K_ts = 3.0 is an estimate (Shigley 9th ed. Table 7-1 first-iteration "
+               "value for keyseats and ring grooves in torsion; no verified spline chart), "
+               "K_fs = K_ts (root radius unknown)")
+
+
 def involute_spline_beta_tau(ultimate_strength: float, d: float) -> Kts:
     """DIN 743-2 fatigue notch factor beta_tau of an involute spline shaft (Zahnwelle), torsion.
+
+    **DIN 743 chain only.** beta_tau belongs with DIN 743's own material values, size factors
+    K1/K2 and roughness factor; it is not combined with Shigley's Marin endurance limit, so the
+    strength study does not use it (it uses :func:`spline_root_kts_estimate`).
 
     beta_tau*(sigma_B) = exp(4.2e-7 sigma_B^2) (sigma_B in MPa);
     beta_tau(d_BK) = 1 + 0.75 (beta_tau* - 1) at the test diameter d_BK = 29 mm;
