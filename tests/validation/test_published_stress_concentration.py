@@ -22,8 +22,8 @@ CHART_TOLERANCE = 0.05  # relative; see the module docstring
 # "Torsion of grooved shaft (values of K)", K = tau_max / (16 T / (pi d^3)), d = root diameter.
 # Columns r/d, rows D/d. Cells used: those where the fit is defined (0.25 <= t/r <= 50, t = groove
 # depth) and agrees with the table within 5 %; the five cells at r/d <= 0.03 with D/d >= 1.3 where
-# the fit falls 5.2-10.3 % below the table are findings (README), the four D/d = 1.05 cells at
-# r/d >= 0.15 lie outside the fit (t/r < 0.25).
+# the fit falls 5.2-10.3 % below the table are findings (README); four cells lie outside the fit
+# (t/r < 0.25: D/d = 1.05 at r/d >= 0.15, D/d = 1.10 at r/d = 0.30).
 CARVILL_RD = (0.02, 0.03, 0.04, 0.06, 0.10, 0.15, 0.20, 0.30)
 CARVILL_GROOVE = {
     1.05: (2.01, 1.80, 1.65, 1.52, 1.38, 1.30, 1.25, 1.20),
