@@ -22,7 +22,9 @@ class DesignError(ShaftcheckError):
     def __init__(self, path: str, message: str):
         self.path = path
         self.message = message
-        super().__init__(f"{path}: {message}" if path else message)
+        # "key = value ...: rule" reads as one sentence; other messages follow "key: "
+        sep = " " if message.startswith("= ") else ": "
+        super().__init__(f"{path}{sep}{message}" if path else message)
 
 
 class UnreachablePoseError(ShaftcheckError):

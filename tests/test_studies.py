@@ -1,8 +1,8 @@
 """Whole-design behaviour of the studies (geometry, bearing, strength, torque steer).
 
-Sources: reference notes kinematics_and_torque_steer.md §4.1 and §5.2 [DER] (equal, mirrored
-halfshafts have equal angles and zero net joint-angle moment in equal heave; §5.4: an open
-differential keeps wheel torques equal), sections_and_strength.md §6 (thin tubes buckle).
+Sources: project derivations of docs/methods.md §5.1 and §11 (equal, mirrored halfshafts have
+equal angles and zero net joint-angle moment in equal heave; §13: an open differential keeps wheel
+torques equal), EN 1993-1-6:2007 Annex D (thin tubes buckle; docs/methods.md §9).
 Design variants are made by editing the example files' text.
 """
 
@@ -47,8 +47,8 @@ def test_examples_pass(intermediate, tubular):
 
 
 def test_equal_halfshafts_behind_an_intermediate_shaft_mirror_the_left(intermediate):
-    """Notes §4.1 [DER]: with the inboard joint at the mirror of the left one, the angles of both
-    sides are equal at every travel; the optimiser must find that length (0.285 m here)."""
+    """docs/methods.md §5.1: with the inboard joint at the mirror of the left one, the angles of
+    both sides are equal at every travel; the optimiser must find that length (0.285 m here)."""
     b = intermediate.to_dict()["bearing"]
     assert b["length_mm"] == pytest.approx(285.0, abs=1e-3)
     assert b["max_angle_difference_deg"] < 1e-5
@@ -59,7 +59,7 @@ def test_equal_halfshafts_behind_an_intermediate_shaft_mirror_the_left(intermedi
 
 
 def test_mirrored_shafts_have_no_net_moment_in_heave(intermediate):
-    """Notes §5.2 [DER]: equal shafts give net 0.000 at design and in any equal heave."""
+    """docs/methods.md §11.2: equal shafts give net 0.000 at design and in any equal heave."""
     heave = intermediate.to_dict()["torque_steer"]["heave"]
     net = np.asarray(heave["net_moment_nm"])
     # efficiency is included and equal on both sides, so the net stays zero
@@ -67,7 +67,7 @@ def test_mirrored_shafts_have_no_net_moment_in_heave(intermediate):
 
 
 def test_roll_breaks_the_symmetry(intermediate):
-    """Notes §5.2 [DER]: equal lengths do not remove joint-angle torque steer in roll."""
+    """docs/methods.md §5.1: equal lengths do not remove joint-angle torque steer in roll."""
     roll = np.asarray(intermediate.to_dict()["torque_steer"]["roll"]["net_moment_nm"])
     assert np.max(np.abs(roll)) > 10.0
 
@@ -110,10 +110,11 @@ def test_heavy_duty_cycle_fails_fatigue_damage_only(tmp_path):
 
 
 def test_thin_walled_tube_fails_buckling_not_static(tmp_path):
-    """A 60 x 0.45 mm tube is about as stiff as the 35 x 2.5 mm tube but r/t = 66:
-    EN 1993-1-6 Annex D (long tube, 0.25 E (t/r)^1.5, notes §6) gives tau_cr near 100 MPa."""
+    """A 60 x 0.5 mm tube (the thinnest wall the loader accepts) is about as stiff as the
+    35 x 2.5 mm tube but r/t = 60: EN 1993-1-6:2007 Annex D (long tube, 0.25 E (t/r)^1.5) gives
+    tau_cr near 110 MPa."""
     path = _variant(tmp_path, TUBULAR, (r"^outer_diameter_mm = 35.0", "outer_diameter_mm = 60.0"),
-                    (r"^wall_mm = 2.5", "wall_mm = 0.45"))
+                    (r"^wall_mm = 2.5", "wall_mm = 0.5"))
     result = evaluate(load_design(path))
     failed = {c.id for c in result.failed}
     assert "buckling_right" in failed
@@ -125,7 +126,7 @@ def test_limited_slip_adds_split_friction_and_a_transient_torque_difference(tmp_
                                         'differential = "limited_slip"\ntorque_bias_ratio = 3.0'))
     ts = evaluate(load_design(path), transient=True).to_dict()["torque_steer"]
     split = ts["split_mu"]
-    # notes §5.3 [DER]: T_low = mu_low F_z R; T_high = min(TBR T_low, mu_high F_z R)
+    # docs/methods.md §12.2: T_low = mu_low F_z R; T_high = min(TBR T_low, mu_high F_z R)
     f_z, r = 8400.0 / 2, 0.305
     assert split["low_friction_left"]["torque_left_nm"] == pytest.approx(0.2 * f_z * r)
     assert split["low_friction_left"]["torque_right_nm"] == pytest.approx(3 * 0.2 * f_z * r)
@@ -141,7 +142,7 @@ def test_cardan_joint_is_flagged_above_its_working_angle(tmp_path):
     assert {"cardan_working_angle_left_outboard", "cardan_working_angle_right_outboard"} <= ids
     card = result.to_dict()["kinematics"]["cardan"]["left_outboard"]
     beta = np.radians(card["working_angle_deg"])
-    # reference notes §1.1: peak-to-peak speed fluctuation sin^2(beta)/cos(beta)
+    # docs/methods.md §4.2: peak-to-peak speed fluctuation sin^2(beta)/cos(beta)
     assert card["speed_fluctuation_peak_to_peak"] == pytest.approx(np.sin(beta) ** 2
                                                                   / np.cos(beta))
 

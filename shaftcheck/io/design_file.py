@@ -1,20 +1,27 @@
 """Loading design files (TOML, format 1) into the data model of :mod:`shaftcheck.model.design`.
 
-The file format is described in ``docs/design-file.md`` and in the starter file written by
-``shaftcheck new``.
-Trade units in the file (mm, N*m, MPa, deg, N*m/deg, km/h) are converted to SI here and only here.
-Every rule broken raises :class:`~shaftcheck.errors.DesignError` naming the key path.
+The file format, every key with its unit, default and ranges, is the design-file table of
+:mod:`shaftcheck.model.limits`; ``docs/design-file.md`` is generated from it. Trade units in the
+file (mm, N*m, MPa, deg, N*m/deg, km/h) are converted to SI here and only here. Every rule broken
+raises :class:`~shaftcheck.errors.DesignError` naming the key path; values outside their typical
+range are accepted and listed in ``Design.notices``. Cross-field rules (coinciding hard points,
+a design pose the strut solver cannot reach, ranges that must contain the design position, ...)
+live in :mod:`shaftcheck.io.design_checks`.
 """
 
 from __future__ import annotations
 
 import hashlib
 import math
+import re
 from pathlib import Path
 
 from shaftcheck.errors import DesignError
+from shaftcheck.io import design_checks as checks
 from shaftcheck.io.criteria_table import read_criteria
 from shaftcheck.io.data_files import load_library_materials, read_material
+from shaftcheck.io.echo import quoted, snippet
+from shaftcheck.io.file_access import confined_path, read_limited
 from shaftcheck.io.toml_tables import Table, nearest, parse_toml
 from shaftcheck.methods.sections import Segment
 from shaftcheck.model.design import (  # noqa: F401  (re-exported: the loader's API)
@@ -37,107 +44,134 @@ from shaftcheck.model.design import (  # noqa: F401  (re-exported: the loader's 
     TorqueSteerInputs,
     Vehicle,
 )
+from shaftcheck.model.limits import (
+    MAX_DESIGN_FILE_BYTES,
+    MAX_ID_LENGTH,
+    MAX_JOINTS,
+    MAX_MATERIALS,
+    MAX_SEGMENTS,
+    MAX_SPECTRUM_BINS,
+    MAX_TABLE_FILE_BYTES,
+)
 from shaftcheck.model.materials import Material
 
 DEG = math.pi / 180.0
+_ID = re.compile(r"^[A-Za-z0-9_-]+$")
 
 
 # ---------------------------------------------------------------------------------------------
-def load_design(path: str | Path) -> Design:
-    """Read and validate a design file; raises DesignError with a key path on any bad input."""
+def load_design(path: str | Path, *, tables_from: str | Path | None = None) -> Design:
+    """Read and validate a design file; raises DesignError with a key path on any bad input.
+
+    Table files named in the design (``suspension.left_table``) are read relative to the design
+    file's folder and must lie inside it, or inside ``tables_from`` when given. Only regular
+    files are read, each up to a size limit checked before reading.
+    """
     p = Path(path)
-    try:
-        raw = p.read_bytes()
-    except OSError as exc:
-        raise DesignError(str(p), f"cannot read the design file ({exc.strerror})") from None
+    raw = read_limited(p, MAX_DESIGN_FILE_BYTES, str(p), "the design file")
     try:
         text = raw.decode("utf-8")
     except UnicodeDecodeError:
         raise DesignError(str(p), "the design file is not UTF-8 text") from None
     data = parse_toml(text, str(p))
+    allowed = () if tables_from is None else (Path(tables_from),)
     return design_from_dict(data, path=str(p), sha256=hashlib.sha256(raw).hexdigest(),
-                            base_dir=p.parent)
+                            base_dir=p.parent, tables_from=allowed)
 
 
 def design_from_dict(data: dict, path: str = "<memory>", sha256: str = "",
-                     base_dir: Path | None = None) -> Design:
-    root = Table(data, "")
-    fmt = root.raw("format")
+                     base_dir: Path | None = None, tables_from: tuple = ()) -> Design:
+    """Validate parsed design data (the dict tomllib gives) into a Design."""
+    notices: list[str] = []
+    root = Table(data, "", "root", notices)
+    fmt = root.get("format")
     if fmt != FORMAT_VERSION:
-        raise DesignError("format", f"= {fmt!r}: this shaftcheck reads format {FORMAT_VERSION}")
-    project = _project(root.table("project"))
-    vehicle = _vehicle(root.table("vehicle"))
-    powertrain = _powertrain(root.table("powertrain"))
-    criteria = read_criteria(root.table("criteria", required=False))
+        raise DesignError("format", f"= {fmt}: this shaftcheck reads format {FORMAT_VERSION}")
+    project = _project(root.child("project", "project"))
+    vehicle = _vehicle(root.child("vehicle", "vehicle"))
+    powertrain = _powertrain(root.child("powertrain", "powertrain"))
+    criteria = read_criteria(root.child("criteria", "criteria", required=False))
     materials = dict(load_library_materials())
     mt = root.table("materials", required=False)
     if mt is not None:
-        for mid in list(mt.data):
-            materials[mid] = read_material(mt.table(mid), mid, origin="design")
+        for mid, sub in _ids(mt, "material", MAX_MATERIALS):
+            materials[mid] = read_material(sub, mid, origin="design")
         mt.done()
     joints = _joints(root.table("joints"))
-    suspension = _suspension(root.table("suspension"), base_dir or Path("."))
-    left = _side(root.table("left"), "left", joints, materials)
-    right = _side(root.table("right"), "right", joints, materials)
-    spectrum = _spectrum(root.table("loads", required=False))
-    tolerances = _tolerances(root.table("tolerances", required=False))
-    torque_steer = _torque_steer(root.table("torque_steer", required=False))
+    suspension = _suspension(root.child("suspension", "suspension"), base_dir or Path("."),
+                             tuple(tables_from))
+    left = _side(root.child("left", "side"), "left", joints, materials)
+    right = _side(root.child("right", "side"), "right", joints, materials)
+    spectrum = _spectrum(root.child("loads", "loads", required=False))
+    tolerances = _tolerances(root.child("tolerances", "tolerances", required=False))
+    torque_steer = _torque_steer(root.child("torque_steer", "torque_steer", required=False))
     root.done()
     if left.intermediate and right.intermediate:
         raise DesignError("left.intermediate", "only one side may have an intermediate shaft")
+    checks.check_sides(suspension, left, right)
     return Design(path, sha256, project, vehicle, powertrain, criteria, materials, joints,
-                  suspension, left, right, tuple(spectrum), tolerances, torque_steer)
+                  suspension, left, right, tuple(spectrum), tolerances, torque_steer,
+                  tuple(notices))
+
+
+def _ids(t: Table, schema: str, maximum: int):
+    """(id, sub-table) pairs of an id-keyed table such as [joints]; ids and count checked."""
+    if len(t.data) > maximum:
+        raise DesignError(t.path, f"defines {len(t.data)} entries; at most {maximum} are allowed")
+    out = []
+    for name in list(t.data):
+        if len(name) > MAX_ID_LENGTH or not _ID.match(name):
+            raise DesignError(t.key(name), f"an id is 1 to {MAX_ID_LENGTH} letters, digits, '_' "
+                              "and '-'")
+        out.append((name, t.child(name, schema)))
+    return out
 
 
 def _project(t: Table) -> Project:
-    out = Project(t.string("name"), t.string("revision", default="-"),
-                  t.string("date", default="undated"), t.string("author", default="-"))
+    out = Project(t.get("name"), t.get("revision"), t.get("date"), t.get("author"))
     t.done()
     return out
 
 
 def _vehicle(t: Table) -> Vehicle:
-    radius = t.number("loaded_radius_mm", "mm", positive=True) * 1e-3
     out = Vehicle(
-        loaded_radius=radius,
-        front_axle_load=t.number("front_axle_load_n", "N", positive=True),
-        tyre_mu=t.number("tyre_mu", positive=True, hi=3.0),
-        max_speed=t.number("max_speed_kmh", "km/h", positive=True) / 3.6,
-        rack_travel_per_rev=t.number("rack_travel_per_rev_mm", "mm", positive=True) * 1e-3,
-        mass=t.number("mass_kg", "kg", default=1350.0, positive=True),
-        wheel_inertia=t.number("wheel_inertia_kg_m2", "kg*m^2", default=0.9, positive=True),
-        tyre_slip_stiffness=t.number("tyre_slip_stiffness_n", "N", default=80000.0,
-                                     positive=True),
-        tyre_relaxation_length=t.number("tyre_relaxation_length_mm", "mm", default=250.0,
-                                        positive=True) * 1e-3,
+        loaded_radius=t.get("loaded_radius_mm") * 1e-3,
+        front_axle_load=t.get("front_axle_load_n"),
+        tyre_mu=t.get("tyre_mu"),
+        max_speed=t.get("max_speed_kmh") / 3.6,
+        rack_travel_per_rev=t.get("rack_travel_per_rev_mm") * 1e-3,
+        mass=t.get("mass_kg"),
+        wheel_inertia=t.get("wheel_inertia_kg_m2"),
+        tyre_slip_stiffness=t.get("tyre_slip_stiffness_n"),
+        tyre_relaxation_length=t.get("tyre_relaxation_length_mm") * 1e-3,
     )
     t.done()
     return out
 
 
 def _powertrain(t: Table) -> Powertrain:
-    diff = t.string("differential", default="open", choices=DIFFERENTIALS)
-    tbr = t.number("torque_bias_ratio", required=diff == "limited_slip", lo=1.0)
+    diff = t.get("differential")
+    tbr = t.get("torque_bias_ratio", required=diff == "limited_slip")
     if diff != "limited_slip" and tbr is not None:
         raise DesignError(t.key("torque_bias_ratio"),
                           f"= {tbr:g}: only a limited_slip differential takes a torque bias ratio")
     tbr = {"open": 1.0, "locked": math.inf}.get(diff, tbr)
-    mt = t.table("mounts", required=False)
+    mt = t.child("mounts", "mounts", required=False)
     mounts = None
     if mt is not None:
-        mounts = Mounts(mt.point_mm("roll_axis_point_mm"), mt.axis("roll_axis"),
-                        mt.number("roll_stiffness_nm_per_deg", "N*m/deg", positive=True) / DEG,
-                        tuple(x * DEG for x in (mt.numbers("misalignment_deg", 3, "deg",
-                                                           required=False) or (0, 0, 0))))
+        point = tuple(x * 1e-3 for x in mt.get("roll_axis_point_mm"))
+        mounts = Mounts(point, mt.get("roll_axis"),
+                        mt.get("roll_stiffness_nm_per_deg") / DEG,
+                        tuple(x * DEG for x in mt.get("misalignment_deg")))
         mt.done()
     out = Powertrain(
-        engine_torque=t.number("engine_torque_nm", "N*m", positive=True),
-        first_gear_ratio=t.number("first_gear_ratio", positive=True),
-        final_drive_ratio=t.number("final_drive_ratio", positive=True),
-        efficiency=t.number("efficiency", default=0.94, positive=True, hi=1.0),
+        engine_torque=t.get("engine_torque_nm"),
+        first_gear_ratio=t.get("first_gear_ratio"),
+        final_drive_ratio=t.get("final_drive_ratio"),
+        efficiency=t.get("efficiency"),
         differential=diff,
         torque_bias_ratio=tbr,
-        dynamic_factor=t.number("dynamic_factor", default=1.0, positive=True),
+        dynamic_factor=t.get("dynamic_factor"),
         mounts=mounts,
     )
     t.done()
@@ -146,25 +180,23 @@ def _powertrain(t: Table) -> Powertrain:
 
 def _joints(t: Table) -> dict:
     out = {}
-    for jid in list(t.data):
-        j = t.table(jid)
-        kind = j.string("kind", choices=JOINT_KINDS)
+    for jid, j in _ids(t, "joint", MAX_JOINTS):
+        kind = j.get("kind")
         plunging = kind in PLUNGING_KINDS
-        pmin = j.number("plunge_min_mm", "mm", required=plunging, default=None if plunging
-                        else 0.0)
-        pmax = j.number("plunge_max_mm", "mm", required=plunging, default=None if plunging
-                        else 0.0)
+        pmin = j.get("plunge_min_mm", required=plunging)
+        pmax = j.get("plunge_max_mm", required=plunging)
         if plunging and not pmin < pmax:
             raise DesignError(j.key("plunge_max_mm"), f"= {pmax:g} mm: must be above "
                               f"plunge_min_mm = {pmin:g} mm")
-        if not plunging and (pmin != 0.0 or pmax != 0.0):
-            raise DesignError(j.key("plunge_max_mm"), f"a {kind} joint does not plunge; "
-                              "leave plunge_min_mm/plunge_max_mm out")
-        k = j.number("torsional_stiffness_nm_per_deg", "N*m/deg", required=False, positive=True)
-        loss = j.number("efficiency_loss_pct_per_deg", "%/deg", required=False, nonneg=True,
-                        hi=1.0)
-        out[jid] = Joint(jid, kind, j.number("max_angle_deg", "deg", positive=True, hi=60.0)
-                         * DEG, pmin * 1e-3, pmax * 1e-3, math.inf if k is None else k / DEG,
+        if not plunging and (pmin is not None or pmax is not None):
+            raise DesignError(j.key("plunge_max_mm" if pmin is None else "plunge_min_mm"),
+                              f"a {kind} joint does not plunge; leave plunge_min_mm/"
+                              "plunge_max_mm out")
+        k = j.get("torsional_stiffness_nm_per_deg")
+        loss = j.get("efficiency_loss_pct_per_deg")
+        out[jid] = Joint(jid, kind, j.get("max_angle_deg") * DEG,
+                         (pmin or 0.0) * 1e-3, (pmax or 0.0) * 1e-3,
+                         math.inf if k is None else k / DEG,
                          None if loss is None else loss / 100.0)
         j.done()
     if not out:
@@ -175,46 +207,53 @@ def _joints(t: Table) -> dict:
 
 def _corner(t: Table, model: str) -> Corner:
     strut = model == "strut"
-    pts = {name: t.point_mm(f"{name}_mm", required=strut) for name in HARD_POINTS[:-1]}
-    spindle = t.axis("spindle_axis", required=strut)
-    offset = t.number("outboard_joint_offset_mm", "mm", nonneg=True) * 1e-3
+    pts = {}
+    for name in HARD_POINTS[:-1]:
+        p = t.get(f"{name}_mm", required=strut)
+        pts[name] = None if p is None else tuple(x * 1e-3 for x in p)
+    spindle = t.get("spindle_axis", required=strut)
+    offset = t.get("outboard_joint_offset_mm") * 1e-3
     t.done()
     return Corner(offset, *pts.values(), spindle)
 
 
-def _suspension(t: Table, base_dir: Path) -> Suspension:
-    model = t.string("model", choices=("strut", "table"))
-    travel = tuple(x * 1e-3 for x in t.range_("travel_mm", "mm"))
-    rack = tuple(x * 1e-3 for x in t.range_("rack_travel_mm", "mm"))
-    mirror = t.boolean("mirror", default=True)
-    left = _corner(t.table("left"), model)
-    rt = t.table("right", required=not mirror)
+def _suspension(t: Table, base_dir: Path, tables_from: tuple) -> Suspension:
+    model = t.get("model")
+    travel = tuple(x * 1e-3 for x in t.get("travel_mm"))
+    rack = tuple(x * 1e-3 for x in t.get("rack_travel_mm"))
+    mirror = t.get("mirror")
+    left = _corner(t.child("left", "corner"), model)
+    rt = t.child("right", "corner", required=not mirror)
     if mirror and rt is not None:
         raise DesignError(t.key("right"), "mirror = true takes the right corner from the left; "
                           "remove [suspension.right] or set mirror = false")
     right = left.mirrored() if mirror else _corner(rt, model)
     tables = {}
     for side in ("left", "right"):
-        name = t.string(f"{side}_table", required=False)
+        key = t.key(f"{side}_table")
+        name = t.get(f"{side}_table")
         if model == "table" and name is None and (side == "left" or not mirror):
-            raise DesignError(t.key(f"{side}_table"), "missing: a table corner names its CSV file")
+            raise DesignError(key, "missing: a table corner names its CSV file")
         if model == "strut" and name is not None:
-            raise DesignError(t.key(f"{side}_table"), 'only model = "table" reads a CSV file')
+            raise DesignError(key, 'only model = "table" reads a CSV file')
+        if model == "table" and mirror and side == "right" and name is not None:
+            raise DesignError(key, "mirror = true takes the right corner from the left table; "
+                              "remove right_table or set mirror = false")
         if name is not None:
-            tables[side] = _read_corner_table(base_dir / name, t.key(f"{side}_table"))
+            tables[side] = _read_corner_table(name, base_dir, tables_from, key)
     t.done()
     if model == "table" and mirror:
         tables["right"] = _mirror_table(tables["left"])
-    _check_travel_origin(travel, "suspension.travel_mm")
-    _check_travel_origin(rack, "suspension.rack_travel_mm")
+    if model == "strut":
+        checks.check_strut_corner(left, "suspension.left", "left")
+        if not mirror:
+            checks.check_strut_corner(right, "suspension.right", "right")
+    else:
+        for side in ("left", "right"):
+            checks.check_table_covers(tables[side], travel, rack,
+                                      t.key(f"{'left' if mirror else side}_table"))
     return Suspension(model, travel, rack, mirror, left, right, tables.get("left"),
                       tables.get("right"))
-
-
-def _check_travel_origin(rng: tuple, key: str) -> None:
-    if not rng[0] <= 0.0 <= rng[1]:
-        raise DesignError(key, f"= [{rng[0] * 1e3:g}, {rng[1] * 1e3:g}] mm: the range must "
-                          "include the design position 0")
 
 
 def _mirror_table(table):
@@ -230,56 +269,60 @@ def _mirror_table(table):
         if getattr(table, f) is not None})
 
 
-def _read_corner_table(path: Path, key: str):
+def _read_corner_table(name: str, base_dir: Path, tables_from: tuple, key: str):
     from shaftcheck.io.corner_table import parse_corner_table
 
+    path = confined_path(name, base_dir, key, tables_from)
+    raw = read_limited(path, MAX_TABLE_FILE_BYTES, key, f"the corner table {quoted(name)}")
     try:
-        text = path.read_text(encoding="utf-8")
-    except OSError as exc:
-        raise DesignError(key, f"cannot read {path} ({exc.strerror})") from None
-    return parse_corner_table(text, str(path))
+        text = raw.decode("utf-8")
+    except UnicodeDecodeError:
+        raise DesignError(key, f"the corner table {quoted(name)} is not UTF-8 text") from None
+    return parse_corner_table(text, snippet(name))
 
 
-def _segments(t: Table, name: str) -> tuple:
-    segs = []
-    for s in t.array_of_tables(name):
-        segs.append(_segment(s))
-    return tuple(segs)
+def _segments(t: Table) -> tuple:
+    segs = tuple(_segment(s) for s in t.tables("segments", "segment", MAX_SEGMENTS))
+    checks.check_segment_sum(segs, t.key("segments"))
+    return segs
 
 
 def _segment(s: Table) -> Segment:
-    kind = s.string("kind", choices=("solid", "tube", "spline"))
-    length = s.number("length_mm", "mm", positive=True) * 1e-3
-    fillet = s.number("fillet_radius_mm", "mm", required=False, positive=True)
+    kind = s.get("kind")
+    length = s.get("length_mm") * 1e-3
+    fillet = s.get("fillet_radius_mm")
     fillet = None if fillet is None else fillet * 1e-3
     if kind == "solid":
-        seg = Segment("solid", length, s.number("diameter_mm", "mm", positive=True) * 1e-3,
-                      fillet_radius=fillet)
+        seg = Segment("solid", length, s.get("diameter_mm") * 1e-3, fillet_radius=fillet)
     elif kind == "tube":
-        D = s.number("outer_diameter_mm", "mm", positive=True)
+        D = s.get("outer_diameter_mm")
         has_wall, has_bore = s.has("wall_mm"), s.has("inner_diameter_mm")
         if has_wall == has_bore:
             raise DesignError(s.key("wall_mm"), "give exactly one of wall_mm or "
                               "inner_diameter_mm for a tube")
         if has_wall:
-            w = s.number("wall_mm", "mm", positive=True)
+            w = s.get("wall_mm")
             if 2 * w >= D:
                 raise DesignError(s.key("wall_mm"), f"= {w:g} mm: twice the wall must be below "
                                   f"outer_diameter_mm = {D:g} mm")
             di = D - 2 * w
         else:
-            di = s.number("inner_diameter_mm", "mm", positive=True)
+            di = s.get("inner_diameter_mm")
             if di >= D:
                 raise DesignError(s.key("inner_diameter_mm"), f"= {di:g} mm: must be below "
                                   f"outer_diameter_mm = {D:g} mm")
+            if D - di < 1.0:
+                raise DesignError(s.key("inner_diameter_mm"), f"= {di:g} mm leaves a wall of "
+                                  f"{(D - di) / 2:g} mm in outer_diameter_mm = {D:g} mm; the "
+                                  "wall must be at least 0.5 mm")
         seg = Segment("tube", length, D * 1e-3, di * 1e-3, fillet_radius=fillet)
     else:
-        major = s.number("major_diameter_mm", "mm", positive=True)
-        minor = s.number("minor_diameter_mm", "mm", positive=True)
+        major = s.get("major_diameter_mm")
+        minor = s.get("minor_diameter_mm")
         if minor >= major:
             raise DesignError(s.key("minor_diameter_mm"), f"= {minor:g} mm: must be below "
                               f"major_diameter_mm = {major:g} mm")
-        sd = s.number("stiffness_diameter_mm", "mm", required=False, positive=True)
+        sd = s.get("stiffness_diameter_mm")
         if sd is not None and not minor <= sd <= major:
             raise DesignError(s.key("stiffness_diameter_mm"), f"= {sd:g} mm: must lie between "
                               f"the minor ({minor:g}) and major ({major:g}) diameters")
@@ -289,19 +332,21 @@ def _segment(s: Table) -> Segment:
     return seg
 
 
-def _ref(t: Table, key: str, registry: dict, what: str):
-    rid = t.string(key)
+def _ref(t: Table, key: str, registry: dict, table: str):
+    rid = t.get(key)
     if rid not in registry:
-        raise DesignError(t.key(key), f"= {rid!r}: no {what} with this id{nearest(rid, registry)}")
+        where = "[materials] or the material library" if table == "materials" else f"[{table}]"
+        raise DesignError(t.key(key), f"= {quoted(rid)} is not defined in {where}"
+                          f"{nearest(rid, registry)}")
     return registry[rid]
 
 
 def _side(t: Table, name: str, joints: dict, materials: dict) -> Side:
-    ij = _ref(t, "inboard_joint", joints, "joint")
-    oj = _ref(t, "outboard_joint", joints, "joint")
-    material = _ref(t, "material", materials, "material")
-    axis = t.axis("output_axis")
-    it = t.table("intermediate", required=False)
+    ij = _ref(t, "inboard_joint", joints, "joints")
+    oj = _ref(t, "outboard_joint", joints, "joints")
+    material = _ref(t, "material", materials, "materials")
+    axis = t.get("output_axis")
+    it = t.child("intermediate", "intermediate", required=False)
     inter = None
     if it is not None:
         if t.has("inboard_centre_mm"):
@@ -311,19 +356,17 @@ def _side(t: Table, name: str, joints: dict, materials: dict) -> Side:
         inter = _intermediate(it, material, materials)
         centre = None
     else:
-        centre = t.point_mm("inboard_centre_mm")
-    segs = _segments(t, "segments")
+        centre = tuple(x * 1e-3 for x in t.get("inboard_centre_mm"))
+    segs = _segments(t)
     t.done()
     return Side(name, ij, oj, centre, axis, material, segs, inter)
 
 
 def _intermediate(t: Table, side_material: Material, materials: dict) -> Intermediate:
-    point = t.point_mm("output_point_mm")
-    offset = t.number("bearing_offset_mm", "mm", nonneg=True) * 1e-3
-    rng = tuple(x * 1e-3 for x in t.range_("length_range_mm", "mm"))
-    if rng[0] <= 0:
-        raise DesignError(t.key("length_range_mm"), "lengths must be greater than zero")
-    length = t.number("length_mm", "mm", required=False, positive=True)
+    point = tuple(x * 1e-3 for x in t.get("output_point_mm"))
+    offset = t.get("bearing_offset_mm") * 1e-3
+    rng = tuple(x * 1e-3 for x in t.get("length_range_mm"))
+    length = t.get("length_mm")
     if length is not None:
         length *= 1e-3
         if not rng[0] <= length <= rng[1]:
@@ -332,9 +375,10 @@ def _intermediate(t: Table, side_material: Material, materials: dict) -> Interme
     if offset >= rng[0]:
         raise DesignError(t.key("bearing_offset_mm"), f"= {offset * 1e3:g} mm: must be shorter "
                           "than the shortest intermediate length")
-    rating = t.number("bearing_dynamic_rating_n", "N", positive=True)
-    material = _ref(t, "material", materials, "material") if t.has("material") else side_material
-    segs = _segments(t, "segments")
+    rating = t.get("bearing_dynamic_rating_n")
+    material = _ref(t, "material", materials, "materials") if t.has("material") \
+        else side_material
+    segs = _segments(t)
     t.done()
     return Intermediate(point, offset, length, rng, rating, segs, material)
 
@@ -343,13 +387,13 @@ def _spectrum(t: Table | None) -> list:
     if t is None:
         return []
     bins = []
-    for b in t.array_of_tables("spectrum", required=False):
-        lo = b.number("torque_min_nm", "N*m")
-        hi = b.number("torque_max_nm", "N*m")
+    for b in t.tables("spectrum", "bin", MAX_SPECTRUM_BINS, required=False):
+        lo = b.get("torque_min_nm")
+        hi = b.get("torque_max_nm")
         if hi < lo:
             raise DesignError(b.key("torque_max_nm"), f"= {hi:g} N*m: must not be below "
                               f"torque_min_nm = {lo:g} N*m")
-        bins.append(LoadBin(lo, hi, b.number("cycles", positive=True)))
+        bins.append(LoadBin(lo, hi, b.get("cycles")))
         b.done()
     t.done()
     return bins
@@ -358,7 +402,7 @@ def _spectrum(t: Table | None) -> list:
 def _tolerances(t: Table | None) -> Tolerances:
     if t is None:
         return Tolerances()
-    out = Tolerances(*(t.number(f"{k}_mm", "mm", default=0.0, nonneg=True) * 1e-3
+    out = Tolerances(*(t.get(f"{k}_mm") * 1e-3
                        for k in ("diameter", "wall", "joint_centre", "length")))
     t.done()
     return out
@@ -367,12 +411,12 @@ def _tolerances(t: Table | None) -> Tolerances:
 def _torque_steer(t: Table | None) -> TorqueSteerInputs:
     if t is None:
         return TorqueSteerInputs()
-    lo = t.number("split_mu_low", default=0.2, positive=True, hi=3.0)
-    hi = t.number("split_mu_high", default=1.0, positive=True, hi=3.0)
+    lo = t.get("split_mu_low")
+    hi = t.get("split_mu_high")
     if hi < lo:
-        raise DesignError(t.key("split_mu_high"), f"= {hi:g}: must not be below split_mu_low")
-    out = TorqueSteerInputs(lo, hi, t.number("roll_travel_mm", "mm", default=30.0,
-                                             positive=True) * 1e-3,
-                            t.number("throttle_rise_ms", "ms", default=0.0, nonneg=True) * 1e-3)
+        raise DesignError(t.key("split_mu_high"), f"= {hi:g}: must not be below split_mu_low "
+                          f"= {lo:g}")
+    out = TorqueSteerInputs(lo, hi, t.get("roll_travel_mm") * 1e-3,
+                            t.get("throttle_rise_ms") * 1e-3)
     t.done()
     return out

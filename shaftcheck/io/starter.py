@@ -16,7 +16,7 @@ STARTER = """\
 #
 # Optional tables and keys (defaults in brackets):
 #   [criteria]     stiffness_mismatch_max_pct [5], joint_angle_difference_max_deg [1],
-#                  static_safety_min [1.3], fatigue_safety_min [1.3], buckling_safety_min [2],
+#                  static_safety_min [1.3], fatigue_safety_min [1.3], buckling_safety_min [1.1],
 #                  critical_speed_margin_min [1.3], miner_damage_max [1],
 #                  steering_wheel_torque_max_nm [1.5], mean_stress_criterion ["goodman" |
 #                  "gerber" | "asme_elliptic"], reliability_pct [99], length_fit_tolerance_mm [60]

@@ -108,26 +108,34 @@ class TableCorner:
 
 
 def _grid_axes(t: np.ndarray, r: np.ndarray, label: str) -> tuple[np.ndarray, np.ndarray]:
-    """Travel and rack axes of a full, travel-major, strictly sorted grid of rows [mm]."""
+    """Travel and rack axes of a full, travel-major, strictly sorted grid of rows [mm].
+
+    Linear in the number of rows (vectorised comparisons of neighbouring rows and one reshape).
+    """
     if t.size == 0:
         raise DesignError(label, "the table has no data rows")
-    travel = np.unique(t)
-    rack = r[t == t[0]]
-    nr = rack.size
-    for n in range(1, t.size):
-        same = t[n] == t[n - 1]
-        if t[n] < t[n - 1] or (same and r[n] <= r[n - 1]):
-            what = "duplicates" if same and r[n] == r[n - 1] else "is out of order after"
-            raise DesignError(f"{label}:row {n + 1}",
-                              f"(travel_mm {t[n]:g}, rack_mm {r[n]:g}) {what} row {n}; rows must "
-                              "be sorted by travel_mm, then rack_mm, each pair once")
-    for tv in travel:
-        rows = np.flatnonzero(t == tv)
-        if rows.size != nr or np.any(r[rows] != rack):
-            raise DesignError(f"{label}:row {rows[0] + 1}",
-                              f"travel_mm {tv:g} does not have the same rack_mm values as "
-                              f"travel_mm {travel[0]:g} ({', '.join(f'{x:g}' for x in rack)}): "
-                              "the grid must be full")
+    dt, dr = np.diff(t), np.diff(r)
+    same = dt == 0
+    unsorted = (dt < 0) | (same & (dr <= 0))
+    if unsorted.any():
+        k = int(np.argmax(unsorted))
+        n = k + 1  # 0-based index of the offending row; it follows row n (1-based)
+        what = "duplicates" if same[k] and r[n] == r[n - 1] else "is out of order after"
+        raise DesignError(f"{label}:row {n + 1}",
+                          f"(travel_mm {t[n]:g}, rack_mm {r[n]:g}) {what} row {n}; rows must "
+                          "be sorted by travel_mm, then rack_mm, each pair once")
+    starts = np.flatnonzero(np.concatenate(([True], ~same)))
+    travel = t[starts]
+    sizes = np.diff(np.append(starts, t.size))
+    nr = int(sizes[0])
+    rack = r[:nr]
+    bad = sizes != nr
+    if not bad.any():
+        bad = np.any(r.reshape(travel.size, nr) != rack, axis=1)
+    if bad.any():
+        g = int(np.argmax(bad))
+        raise DesignError(f"{label}:row {starts[g] + 1}",
+                          f"travel_mm {travel[g]:g} does not have the same rack_mm values as "
+                          f"travel_mm {travel[0]:g} ({', '.join(f'{x:g}' for x in rack[:12])}"
+                          f"{', ...' if nr > 12 else ''}): the grid must be full")
     return travel, rack
-
-

@@ -208,6 +208,8 @@ class Design:
     spectrum: tuple
     tolerances: Tolerances
     torque_steer: TorqueSteerInputs = field(default_factory=TorqueSteerInputs)
+    #: one line per value the loader accepted outside its typical range (see model.limits)
+    notices: tuple[str, ...] = ()
 
     def side(self, name: str) -> Side:
         return self.left if name == "left" else self.right
