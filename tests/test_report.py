@@ -106,7 +106,8 @@ def test_numbers_shown_are_the_results(results, pdfs):
 def test_chart_text_is_readable(pdfs):
     text = " ".join(_pages(pdfs["wren_intermediate"]))
     for label in ("Joint angles over wheel travel, rack centred", "wheel travel [mm]",
-                  "left inboard", "right outboard", "S-N line (torsion, Basquin)",
+                  "left inboard", "right outboard",
+                  "S-N line, torsion (0.9 S_su at 10^3 to S_se at 10^6)",
                   "Bearing placement: angle balance over the length range",
                   "Wheel torques after the step", "share of the side's twist [%]"):
         assert label in text, label
