@@ -15,11 +15,12 @@ __version__ = "0.1.0"
 __all__ = ["load_design", "evaluate", "write_report", "__version__"]
 
 
-def load_design(path):
-    """Read and validate a design file (TOML, format 1) -> Design."""
+def load_design(path, *, tables_from=None):
+    """Read and validate a design file (TOML, format 1) -> Design; corner tables are read from
+    the design's folder, or also from ``tables_from`` when given."""
     from shaftcheck.io.design_file import load_design as _load
 
-    return _load(path)
+    return _load(path, tables_from=tables_from)
 
 
 def evaluate(design, **options):

@@ -282,8 +282,8 @@ TABLES: tuple[TableSpec, ...] = (
                        "Largest working angle the joint allows."),
                   _num("plunge_min_mm", "mm", (-200.0, 0.0), (-80.0, -5.0),
                        "Plunge limit in compression, from the design position (negative).",
-                       default=OPTIONAL, note="required for tripod and plunging_ball; not "
-                                              "allowed for the other kinds (they do not plunge)"),
+                       default=OPTIONAL, note="required for tripod and plunging_ball, not "
+                                              "allowed for the other kinds"),
                   _num("plunge_max_mm", "mm", (0.0, 200.0), (5.0, 80.0),
                        "Plunge limit in extension, from the design position (positive).",
                        default=OPTIONAL, note="as plunge_min_mm"),
@@ -349,8 +349,8 @@ TABLES: tuple[TableSpec, ...] = (
                   Key("outboard_joint", "ref", meaning="Id of the outboard joint in [joints]."),
                   Key("inboard_centre_mm", "point", "mm", REQUIRED, _POINT, None,
                       "Inboard joint centre at design position.",
-                      note="not given with an intermediate shaft (it is output_point_mm + "
-                           "length_mm x output_axis)"),
+                      note="not given with an intermediate shaft: then it is "
+                           "output_point_mm + length_mm x output_axis"),
                   Key("output_axis", "axis", meaning="Differential (or intermediate shaft) "
                       "output axis, unit vector towards the wheel."),
                   Key("material", "ref", meaning="Material id (design [materials] or the "
