@@ -17,7 +17,7 @@ from reportlab.pdfbase.pdfmetrics import stringWidth
 from reportlab.pdfgen.canvas import Canvas
 from reportlab.platypus import SimpleDocTemplate
 
-from shaftcheck.output.files import OutputExistsError, write_bytes_atomic
+from shaftcheck.output.files import check_target, write_bytes_atomic
 from shaftcheck.report import styles as st
 from shaftcheck.report.blocks import Heading
 from shaftcheck.report.geometry import geometry
@@ -32,12 +32,27 @@ FOOT_SIZE = 7.0
 
 
 def _fit(text: str, width: float) -> str:
-    """Text shortened with '...' to fit ``width`` points in the footer font."""
-    if stringWidth(text, "Helvetica", FOOT_SIZE) <= width:
+    """Text shortened with '...' to fit ``width`` points in the footer font.
+
+    One measurement when the text fits; otherwise a bisection over the length of the kept part
+    (about log2(len(text)) measurements), so a long text costs milliseconds, not a measurement
+    per character.
+    """
+    def w(t: str) -> float:
+        return stringWidth(t, "Helvetica", FOOT_SIZE)
+
+    if w(text) <= width:
         return text
-    while text and stringWidth(text + "...", "Helvetica", FOOT_SIZE) > width:
-        text = text[:-1]
-    return text.rstrip() + "..."
+    if w("...") > width:
+        return ""
+    fits, too_long = 0, len(text)  # text[:fits] + "..." fits, text[:too_long] + "..." does not
+    while too_long - fits > 1:
+        mid = (fits + too_long) // 2
+        if w(text[:mid] + "...") <= width:
+            fits = mid
+        else:
+            too_long = mid
+    return text[:fits].rstrip() + "..."
 
 
 def _footer_canvas(left_text: str, sha_short: str):
@@ -54,13 +69,17 @@ def _footer_canvas(left_text: str, sha_short: str):
 
         def save(self):
             total = len(self._pending)
+            # the left text is fitted once, beside the widest page label of this document
+            widest = f"SHA-256 {sha_short}   page {total} of {total}"
+            room = A4[0] - 2 * st.MARGIN - stringWidth(widest, "Helvetica", FOOT_SIZE) - 12
+            left = _fit(left_text, room)
             for state in self._pending:
                 self.__dict__.update(state)
-                self._draw_footer(total)
+                self._draw_footer(total, left)
                 super().showPage()
             super().save()
 
-        def _draw_footer(self, total: int):
+        def _draw_footer(self, total: int, left: str):
             w, _ = A4
             y = st.BOTTOM_MARGIN - 9
             self.saveState()
@@ -71,8 +90,7 @@ def _footer_canvas(left_text: str, sha_short: str):
             self.setFillColor(st.MUTED)
             page = f"page {self._pageNumber} of {total}"
             right = f"SHA-256 {sha_short}   {page}"
-            room = w - 2 * st.MARGIN - stringWidth(right, "Helvetica", FOOT_SIZE) - 12
-            self.drawString(st.MARGIN, y, _fit(left_text, room))
+            self.drawString(st.MARGIN, y, left)
             self.drawRightString(w - st.MARGIN, y, right)
             self.restoreState()
 
@@ -124,11 +142,11 @@ def build_pdf(result) -> bytes:
 def write_report(result, path, *, overwrite: bool = False) -> Path:
     """Write the report of ``result`` to ``path`` [PDF] atomically; returns the path.
 
-    Raises :class:`OutputExistsError` when ``path`` exists and ``overwrite``
-    is false (the existing file is left untouched). A failure while building or writing leaves
-    neither the target nor a temporary file behind.
+    Raises :class:`~shaftcheck.output.files.OutputExistsError` when ``path`` exists and
+    ``overwrite`` is false (the
+    existing file is left untouched) and :class:`~shaftcheck.output.files.OutputError` when the
+    file cannot be written there (one line); the target is checked before the report is built.
+    A failure while building or writing leaves neither the target nor a temporary file behind.
     """
-    path = Path(path)
-    if path.exists() and not overwrite:
-        raise OutputExistsError(f"{path} exists; choose another name or pass --overwrite")
+    check_target(path, overwrite=overwrite)
     return write_bytes_atomic(path, build_pdf(result), overwrite=overwrite)
