@@ -4,7 +4,7 @@ SI throughout: points [m], torque [N*m], force [N], moments [N*m], angles [rad].
 ISO 8855: x forward, y left, z up. Every array argument broadcasts over any leading grid
 dimensions (for instance ``(n_travel, n_torque)``); vectors carry a trailing axis of length 3.
 
-Sign conventions (reference notes kinematics_and_torque_steer.md §3.1, ``notes_ts_conventions``):
+Sign conventions (reference notes kinematics_and_torque_steer.md §3.1, ``iso8855_steer_sign``):
 
 * The steering axis unit vector k points up (k_z > 0); it is flipped if given pointing down.
 * A moment about k is positive when it tends to steer the wheel **left** (right-hand rule about
@@ -19,7 +19,7 @@ Model (DESIGN.md "Steering-axis moments (steady)"; notes §2.2, §5.0-§5.2), pe
     direction, perpendicular to the spin axis and to the vertical;
 (b) the outboard CV joint's moment on the hub, M_O = (T_s / cos(beta_o/2)) unit(a_s + b), along
     the bisector of the shaft axis a_s = unit(O - I) and b, T_s = T sign(b.y) the torque about b
-    (``notes_kin_cv_moment``);
+    (``cv_joint_bisector_moment``);
 (c) the reaction at O of the halfshaft's transverse force pair: with M_I the inboard joint moment
     on the shaft, (T_s / cos(beta_i/2)) unit(d + a_s), and Delta = M_O - M_I, the force on the
     shaft at O is F_O = (Delta x a_s) / L and the force on the hub is -F_O.
@@ -41,8 +41,8 @@ from dataclasses import dataclass
 import numpy as np
 
 #: Reference keys (shaftcheck.model.references) behind this module's numbers.
-REFERENCE_KEYS = ("notes_ts_conventions", "notes_kin_cv_moment", "notes_ts_joint_angle",
-                  "notes_ts_drive_lever", "notes_ts_rack")
+REFERENCE_KEYS = ("iso8855_steer_sign", "cv_joint_bisector_moment", "joint_angle_steering_moment",
+                  "disturbing_force_lever_arm", "rack_force_virtual_work")
 
 _Z = np.array([0.0, 0.0, 1.0])
 
@@ -77,7 +77,7 @@ def cv_joint_moment(torque, a, b) -> np.ndarray:
     """Moment an ideal CV joint passes from member a to member b [N*m], shape (..., 3).
 
     M = T / cos(beta/2) * (a + b)/|a + b|, beta = arccos(a.b); T = M.a = M.b is the shaft torque
-    (reference notes §2.2 [DER], ``notes_kin_cv_moment``). Secondary couple on each shaft is
+    (reference notes §2.2 [DER], ``cv_joint_bisector_moment``). Secondary couple on each shaft is
     T tan(beta/2), in the plane of the two shafts.
 
     torque [N*m] signed torque about the members' common sense; a, b [-] unit axes along the
@@ -131,7 +131,7 @@ def steering_axis_moments(inboard, output_axis, outboard, spindle, contact, axis
     """Moments of one driven wheel-and-upright assembly about its steering axis [N*m].
 
     Model (a)+(b)+(c) of the module docstring (DESIGN.md; reference notes §2.2, §5.0-§5.2 [DER];
-    ``notes_ts_conventions``, ``notes_kin_cv_moment``, ``notes_ts_joint_angle``).
+    ``iso8855_steer_sign``, ``cv_joint_bisector_moment``, ``joint_angle_steering_moment``).
 
     inboard I [m], output_axis d [-] (unit, towards the wheel), outboard O [m], spindle b [-]
     (unit, outboard), contact C [m], axis_point P [m], axis k [-] (unit, made to point up): all
@@ -171,7 +171,7 @@ def steering_axis_moments(inboard, output_axis, outboard, spindle, contact, axis
 def naive_projection_moments(inboard, outboard, spindle, contact, axis_point, axis, torque,
                              radius) -> np.ndarray:
     """COMPARISON ONLY: tyre force plus the shaft torque projected on k, T_s (a_s . k) [N*m]
-    (``notes_ts_joint_angle``).
+    (``joint_angle_steering_moment``).
 
     The popular simplification the notes reject (§5.2 [DER]): it ignores the bending moment the
     shaft carries and roughly doubles the joint-angle effect. shaftcheck uses
@@ -192,7 +192,7 @@ def disturbing_lever_arm(kingpin_inclination, scrub_radius, radius) -> np.ndarra
     kingpin_inclination sigma [rad]; scrub_radius r_s [m] (positive: axis meets the ground inboard
     of the contact patch); radius R [m]. Reimpell, The Automotive Chassis 2nd ed. (2001)
     "disturbing force lever arm" [M]; re-derived in the reference notes §5.1 [DER]
-    (``notes_ts_drive_lever``). Drive-force moment per wheel = F_x r_a.
+    (``disturbing_force_lever_arm``). Drive-force moment per wheel = F_x r_a.
     """
     s = np.asarray(kingpin_inclination, float)
     return np.asarray(scrub_radius, float) * np.cos(s) + np.asarray(radius, float) * np.sin(s)
@@ -245,7 +245,7 @@ def rack_and_steering_wheel(moment_left, moment_right, gain_left, gain_right,
     from :func:`rack_gains`; rack_travel_per_rev c [m]. Force on the rack along +y:
     F_y = sum M_i g_i. The rack's steer-left direction is sign(g_L + g_R) (the way the rack moves
     to steer left), so rack_force = |F| in that sense = sign(g_L + g_R) F_y and
-    T_sw = rack_force c / (2 pi) (notes §5.5 [DER], ``notes_ts_rack``).
+    T_sw = rack_force c / (2 pi) (notes §5.5 [DER], ``rack_force_virtual_work``).
     """
     gl, gr = np.asarray(gain_left, float), np.asarray(gain_right, float)
     f_y = np.asarray(moment_left, float) * gl + np.asarray(moment_right, float) * gr

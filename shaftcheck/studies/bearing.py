@@ -80,6 +80,7 @@ class BearingResult:
                           for k, a in self.angles.items()}},
             "scan": {"length_mm": self.scan_length * 1e3,
                      "max_angle_difference_deg": self.scan_difference * RAD2DEG},
+            "references": ["intermediate_shaft_placement"],
         }
         if self.life is not None:
             b = self.life
@@ -93,6 +94,7 @@ class BearingResult:
                            "l10_hours": b.l10_time / 3600.0,
                            "speed_rpm": b.speed * 30.0 / math.pi,
                            "hours_basis": "at the maximum vehicle speed (shortest time)"}
+            out["references"] += ["cv_joint_bisector_moment", "iso281_l10"]
         return out
 
 

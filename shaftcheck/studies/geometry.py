@@ -18,7 +18,7 @@ from shaftcheck.studies.result import Check
 from shaftcheck.units import RAD2DEG
 
 #: the citation registry key of the joint-geometry model
-GEOMETRY_REFERENCE = "notes_kin_geometry"
+GEOMETRY_REFERENCE = "halfshaft_geometry"
 
 
 @dataclass(frozen=True)
@@ -196,7 +196,7 @@ def _cardans(ctx, sides: dict) -> tuple[tuple, list[Check]]:
             checks.append(Check(
                 f"cardan_working_angle_{name}_{which}", "Cardan joint working angle at design",
                 name, beta * RAD2DEG, CARDAN_WORKING_ANGLE_LIMIT * RAD2DEG, "deg", "max",
-                "design position", "notes_kin_cardan"))
+                "design position", "cardan_kinematics"))
     return tuple(found), checks
 
 

@@ -119,6 +119,9 @@ class Result:
             "notices": list(self.notices),
             "load_cases_nm": dict(self.load_cases),
             "kinematics": self.geometry.to_dict(),
+            # registry keys of the methods behind the load cases and the corner poses
+            "references": ["design_torque"] + (
+                ["macpherson_strut_closure"] if d.suspension.model == "strut" else []),
         }
         if self.bearings:
             out["bearing"] = next(iter(self.bearings.values())).to_dict()

@@ -147,14 +147,14 @@ def _checks(design, ctx, sides: dict, mismatch: float) -> list[Check]:
         checks.append(Check(
             f"{which}_angle_difference_design", f"{which.capitalize()} joint angle difference at "
             "design position", "both", diff, crit.joint_angle_difference_max_deg, "deg", "max",
-            "design position", "notes_joint_angles"))
+            "design position", "halfshaft_geometry"))
     for name in SIDES:
         side, s = design.side(name), sides[name]
         for which, joint in (("inboard", side.inboard_joint), ("outboard", side.outboard_joint)):
             checks.append(Check(
                 f"{which}_angle_design_{name}", f"{which.capitalize()} joint angle within its "
                 f"maximum at design ({joint.id})", name, getattr(s, f"{which}_angle") * RAD2DEG,
-                joint.max_angle * RAD2DEG, "deg", "max", "design position", "notes_joint_angles"))
+                joint.max_angle * RAD2DEG, "deg", "max", "design position", "halfshaft_geometry"))
         bar = sum(seg.length for seg in side.segments)
         checks.append(Check(
             f"segment_length_fit_{name}", "Sum of segment lengths vs joint-centre distance", name,

@@ -351,7 +351,7 @@ def pull_checks(design, study: dict) -> list:
     return [Check("steering_wheel_torque", "Torque-steer pull at the steering wheel (heave and "
                   "roll, design torque)", "both", abs(best["steering_wheel_torque_nm"]), lim,
                   "N*m", "max", f"{best['condition']}, {best['where']}; dominant: "
-                  f"{best['dominant_mechanism']}", "notes_ts_rack")]
+                  f"{best['dominant_mechanism']}", "rack_force_virtual_work")]
 
 
 def pull_map_csv(study: dict) -> str:
