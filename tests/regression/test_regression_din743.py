@@ -10,9 +10,10 @@ C (r/t)^z d/D) (torsion, shoulder A = 3.4, B = 19, C = 1, z = 2; round groove A 
 C = 0), K3(d) = 1 - 0.2 lg(beta) lg(d/7.5)/lg 20, and the involute-spline beta_tau =
 1 + 0.75 (exp(4.2e-7 sigma_B^2) - 1) at d_BK = 29 mm; these coefficients are taken from an
 open-source transcription of the standard and are NOT verified against DIN 743-2 itself (what would
-verify them: DIN 743-2:2012, section 4 and Table 3 for splines). alpha_tau values: 4 decimals,
-tolerance 6e-5. The comparison with the Peterson fits is a two-method consistency check: the
-methods agree within about 3 % (3.5 % allowed; the largest gap in the table is 3.2 %).
+verify them: the form-factor and spline notch-factor clauses of DIN 743-2:2012 itself).
+alpha_tau values: 4 decimals, tolerance 6e-5. The comparison with the Peterson fits is a
+two-method consistency check: the methods agree within about 3 % (3.5 % allowed; the largest
+gap in the table is 3.2 %).
 """
 
 
