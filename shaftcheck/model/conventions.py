@@ -84,9 +84,23 @@ CONVENTIONS: dict[str, Convention] = {
         "weight, unbalance and joint axial forces are not included."),
     "fillet_at_step": Convention(
         "§6.1",
-        "The fillet radius at a diameter step is the one given on the segment before the step "
-        "(the inboard one); a step without a fillet radius gets Shigley's sharp-shoulder "
-        "estimate K_ts = 2.2 and notch sensitivity 1, and is flagged."),
+        "The fillet radius belongs to the step. A segment's fillet radius (key fillet_radius_mm "
+        "of the design file) is the radius of the fillets at its ends where the diameter "
+        "changes. At each step the radius is taken from the smaller-diameter neighbour (the "
+        "fillet runs out on the small diameter); if only the larger neighbour gives one, that "
+        "one is used; if both give different values, the smaller-diameter neighbour's is used "
+        "and a notice says so."),
+    "spline_root_estimate": Convention(
+        "§6.4",
+        "At a spline root the strength study uses the nominal shear on the root diameter with "
+        "K_ts = K_fs = 3.0, an estimate: the first-iteration torsion value of Shigley 9th ed. "
+        "Table 7-1 for comparable shaft features (end-milled keyseat, retaining-ring groove), "
+        "K_fs = K_ts because the root radius is unknown."),
+    "torsional_sn": Convention(
+        "§7.3",
+        "The torsional S-N line runs from 0.9 S_su at 10^3 cycles to the torsional endurance "
+        "limit S_se at 10^6 cycles, straight on log-log axes; a bin whose life would be below "
+        "10^3 cycles is refused, not extrapolated."),
     "torsion_mean_sign": Convention(
         "§7.2",
         "In torsion the sign of a mean shear stress only names the torque's direction, so "
@@ -99,15 +113,28 @@ CONVENTIONS: dict[str, Convention] = {
         "the whole spectrum; without such a bin the worst bin overall is used."),
     "static_cases": Convention(
         "§8.2",
-        "Static strength at the design torque is judged against static_safety_min; the other "
-        "load cases (engine abuse with the dynamic factor, wheel slip, the limited-slip split) "
-        "are judged against abuse_safety_min as first yield at the notch root, so that no "
-        "permanent twist remains."),
+        "The criterion uses the nominal safety. Static strength at the design torque is judged "
+        "against static_safety_min; the other load cases (engine abuse with the dynamic factor, "
+        "wheel slip, the limited-slip split) against abuse_safety_min as first yield of the "
+        "nominal section."),
     "plastic_reserve": Convention(
         "§8.3",
         "Twist-off estimates are elastic-perfectly-plastic with tau_y = S_sy: first yield "
         "T_y = tau_y J / r_o, fully plastic T_p = (2 pi / 3) tau_y (r_o^3 - r_i^3); the "
         "first-yield torque at a notch is T_y / K_ts."),
+    "buckling_chi_tau": Convention(
+        "§9",
+        "The elastic-plastic buckling reduction chi_tau of EN 1993-1-6 is applied with "
+        "fabrication quality class B; the check is tau_Rk / tau = chi_tau (f_yk / sqrt 3) / tau "
+        "at the largest load-case torque against buckling_safety_min (default 1.1, gamma_M1), "
+        "and the elastic tau_cr / tau is reported beside it."),
+    "whirl_supports": Convention(
+        "§10.1",
+        "A halfshaft is pinned at its two joint centres (CV joints pass almost no bending "
+        "moment), the joint-centre distance taken from the design geometry and the bar centred "
+        "between them; where a joint centre lies beyond the bar end the bar is extended with "
+        "its end section (the stub inside the joint), where it lies inside the bar the ends "
+        "overhang."),
     "whirl_margin": Convention(
         "§10.1",
         "The whirl margin is the first bending critical speed divided by the shaft speed at "
