@@ -142,6 +142,11 @@ def place(ctx, name: str) -> BearingResult:
                          pl.scan_length, pl.scan_difference)
 
 
+#: largest bearing life reported [m of vehicle travel] (10^7 km); above it the output says
+#: "> 10^7 km" (issue 11, convention 7)
+LIFE_CAP_DISTANCE = 1e10
+
+
 def life(ctx, placement: BearingResult) -> BearingLife:
     """Loads on the support bearing and its ISO 281 basic rating life.
 
@@ -175,12 +180,22 @@ def life(ctx, placement: BearingResult) -> BearingLife:
     C = inter.bearing_dynamic_rating
     l10 = float(rating_life(C, p_eq)) if p_eq > 0 else math.inf
     v = design.vehicle
+    distance = l10 * 2 * math.pi * v.loaded_radius
+    notices = ()
+    if distance > LIFE_CAP_DISTANCE:
+        # the load model (no weight, no axial force, spectrum cycles as revolutions) cannot
+        # support a figure this large: report the cap, not the number (issue 11, convention 7)
+        notices = (f"{name} intermediate bearing: computed L10 above 10^7 km is reported as "
+                   "> 10^7 km; the load model omits shaft weight, joint axial forces and the "
+                   "load over wheel travel and steer, so such a figure has no meaning",)
+        distance = LIFE_CAP_DISTANCE
     return BearingLife(
         torque, float(r_design.bearing_radial), float(r_design.output_radial),
-        float(r_design.couple), p_eq, C, l10, l10 * 2 * math.pi * v.loaded_radius,
+        float(r_design.couple), p_eq, C, l10, distance,
         l10 / v.max_wheel_speed * 2 * math.pi, v.max_wheel_speed,
         "each spectrum bin at the radial load of its maximum torque, revolution share "
-        "proportional to its cycles; shaft weight, unbalance and joint axial forces not included")
+        "proportional to its cycles; shaft weight, unbalance and joint axial forces not "
+        "included; lives above 10^7 km reported as the cap", notices)
 
 
 def run(design, ctx) -> tuple[dict, list[Check]]:
