@@ -31,7 +31,7 @@ _FOLDERS = ("home", "root", "work", "tmp", "var" + SLASH + "tmp", "opt", "Users"
 ABSOLUTE_PATH = re.compile(r"(?<![\w.~\-/])" + SLASH + "(?:" + "|".join(_FOLDERS) + r")(?![\w.\-])")
 #: a home folder written with a tilde
 HOME_TILDE = re.compile(r"(?<![\w.])~" + SLASH)
-#: a Windows drive path such as C:\Users
+#: a Windows drive path: drive letter, colon, backslash, folder name
 WINDOWS_PATH = re.compile(r"\b[A-Za-z]:" + "\\\\" + r"[A-Za-z_]")
 #: any absolute path through a virtual-environment or site-packages folder
 VENV_PATH = re.compile(r"(?<![\w.~\-/])" + SLASH + r"(?:[\w.\-]+" + SLASH + r")*"

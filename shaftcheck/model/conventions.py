@@ -84,23 +84,23 @@ CONVENTIONS: dict[str, Convention] = {
         "weight, unbalance and joint axial forces are not included."),
     "fillet_at_step": Convention(
         "§6.1",
-        "The fillet radius belongs to the step. A segment's fillet radius (key fillet_radius_mm "
-        "of the design file) is the radius of the fillets at its ends where the diameter "
-        "changes. At each step the radius is taken from the smaller-diameter neighbour (the "
-        "fillet runs out on the small diameter); if only the larger neighbour gives one, that "
-        "one is used; if both give different values, the smaller-diameter neighbour's is used "
-        "and a notice says so."),
+        "The fillet radius belongs to the step: it is taken from the smaller-diameter neighbour "
+        "(from the larger one when only that one gives a radius; from the smaller one, with a "
+        "notice, when both give different values); a step without any radius gets the "
+        "conservative default r = 0.02 d with the chart 3.12 fit at that radius (so K_ts depends "
+        "on D/d), notch sensitivity 1 and a notice asking for the drawing's radius."),
     "spline_root_estimate": Convention(
         "§6.4",
-        "At a spline root the strength study uses the nominal shear on the root diameter with "
-        "K_ts = K_fs = 3.0, an estimate: the first-iteration torsion value of Shigley 9th ed. "
-        "Table 7-1 for comparable shaft features (end-milled keyseat, retaining-ring groove), "
-        "K_fs = K_ts because the root radius is unknown."),
+        "A spline root is assessed on the nominal shear at its root (minor) diameter with K_ts = "
+        "K_fs = 3.0, an estimate labelled as such in the output (Shigley's first-iteration "
+        "torsion value for keyseats and ring grooves; no verified chart for involute spline roots "
+        "is in the project)."),
     "torsional_sn": Convention(
         "§7.3",
-        "The torsional S-N line runs from 0.9 S_su at 10^3 cycles to the torsional endurance "
-        "limit S_se at 10^6 cycles, straight on log-log axes; a bin whose life would be below "
-        "10^3 cycles is refused, not extrapolated."),
+        "The torsional S-N line runs from 0.9 S_su at 10^3 cycles to S_se at 10^6 cycles, "
+        "straight on log-log axes, with S_su = 0.67 S_ut; a bin whose equivalent amplitude "
+        "exceeds 0.9 S_su (a life below 10^3 cycles) is refused, not extrapolated, and the damage "
+        "check then fails with that message."),
     "torsion_mean_sign": Convention(
         "§7.2",
         "In torsion the sign of a mean shear stress only names the torque's direction, so "
@@ -113,10 +113,11 @@ CONVENTIONS: dict[str, Convention] = {
         "the whole spectrum; without such a bin the worst bin overall is used."),
     "static_cases": Convention(
         "§8.2",
-        "The criterion uses the nominal safety. Static strength at the design torque is judged "
-        "against static_safety_min; the other load cases (engine abuse with the dynamic factor, "
-        "wheel slip, the limited-slip split) against abuse_safety_min as first yield of the "
-        "nominal section."),
+        "Static strength is judged on the nominal safety S_sy / tau_nom at the weakest section "
+        "(no stress concentration for ductile steel under static load): at the design torque "
+        "against static_safety_min, and under the other load cases (engine abuse with the dynamic "
+        "factor, wheel slip, the limited-slip split) against abuse_safety_min; the notch "
+        "first-yield safety S_sy / (K_ts tau_nom) at the worst notch is reported beside it."),
     "plastic_reserve": Convention(
         "§8.3",
         "Twist-off estimates are elastic-perfectly-plastic with tau_y = S_sy: first yield "
@@ -124,17 +125,16 @@ CONVENTIONS: dict[str, Convention] = {
         "first-yield torque at a notch is T_y / K_ts."),
     "buckling_chi_tau": Convention(
         "§9",
-        "The elastic-plastic buckling reduction chi_tau of EN 1993-1-6 is applied with "
-        "fabrication quality class B; the check is tau_Rk / tau = chi_tau (f_yk / sqrt 3) / tau "
-        "at the largest load-case torque against buckling_safety_min (default 1.1, gamma_M1), "
-        "and the elastic tau_cr / tau is reported beside it."),
+        "Tube buckling is judged on the characteristic resistance tau_Rk = chi_tau f_yk / sqrt(3) "
+        "of EN 1993-1-6 with fabrication quality class B, divided by the nominal shear at the "
+        "largest load-case torque, against buckling_safety_min (1.1, the partial factor gamma_M1, "
+        "by default); the elastic tau_cr / tau is reported beside it."),
     "whirl_supports": Convention(
         "§10.1",
-        "A halfshaft is pinned at its two joint centres (CV joints pass almost no bending "
-        "moment), the joint-centre distance taken from the design geometry and the bar centred "
-        "between them; where a joint centre lies beyond the bar end the bar is extended with "
-        "its end section (the stub inside the joint), where it lies inside the bar the ends "
-        "overhang."),
+        "For whirl a halfshaft is pinned at its two joint centres, the bar centred between them "
+        "(a joint centre beyond the bar's end extends the bar with its end section); an "
+        "intermediate shaft is pinned at the differential output point and at the support "
+        "bearing, its joint end overhanging."),
     "whirl_margin": Convention(
         "§10.1",
         "The whirl margin is the first bending critical speed divided by the shaft speed at "
@@ -162,9 +162,10 @@ CONVENTIONS: dict[str, Convention] = {
     "torque_steer_headline": Convention(
         "§11.5",
         "The headline steering-axis moments and steering-wheel torque are the steady model with "
-        "ideal CV joints, rigid powertrain mounts and the design torque on both shafts; joint "
-        "efficiency and powertrain roll are reported as further mechanisms, and the "
-        "steering-wheel torque check adds the efficiency effect over heave and roll."),
+        "ideal CV joints, rigid powertrain mounts and the design torque on both shafts, at "
+        "design position; joint efficiency and powertrain roll are reported as further "
+        "mechanisms, and the curves, maps and steering-wheel torque checks add the efficiency "
+        "effect."),
     "tolerance_sigma": Convention(
         "§14",
         "Each plus-minus tolerance is three standard deviations of a normal distribution, and "

@@ -59,9 +59,6 @@ REFERENCES: dict[str, Reference] = {
         "W. D. Pilkey & D. F. Pilkey, Peterson's Stress Concentration Factors, 3rd ed. (Wiley, "
         "2008), Chart 3.12, p. 167: stepped round bar with a shoulder fillet in torsion (curve "
         "fit, 0.25 <= t/r <= 4)", "S", "§6.1"),
-    "shigley_t7_1": Reference(
-        f"{_SHIGLEY10}, Table 7-1: first-iteration estimates of stress-concentration factors "
-        "(sharp shoulder fillet, r/d = 0.02: K_ts = 2.2)", "S", "§6.1"),
     # --- materials ---------------------------------------------------------------------------
     "shigley_a20": Reference(
         f"{_SHIGLEY10}, Table A-20: deterministic ASTM minimum tensile and yield strengths of "
@@ -99,11 +96,6 @@ REFERENCES: dict[str, Reference] = {
         "for steering-axis moments (axis pointing up, steer-left positive, "
         "M_k = ((r - P) x F) . k)", "S/M", "§3.1",
         "axis directions seen only as quoted in a secondary source; edition year from memory"),
-    "mh_spline_root": Reference(
-        "Machinery's Handbook, 27th ed. (Industrial Press, 2004), Involute splines - spline "
-        "stresses (ANSI B92.1 / SAE practice): shear under the roots of the external teeth "
-        "S_s = 16 T K_a / (pi D_re^3 K_f), used with K_a = K_f = 1", "M", "§6.4",
-        "formula form seen only in a secondary quotation; page not checked"),
     # --- criteria defaults -------------------------------------------------------------------
     "practice": Reference("Common practice, no published source", "P", "§16.2"),
     # --- strength (stress concentration, fatigue, buckling, whirl) -----------------------------
@@ -125,27 +117,6 @@ REFERENCES: dict[str, Reference] = {
         f"{_SHIGLEY10}, §6-10, eqs. 6-32 to 6-35b: notch sensitivity q_s from the Neuber "
         "constant sqrt(a) (torsion fit, kpsi and inches), K_fs = 1 + q_s (K_ts - 1)", "S",
         "§6.5"),
-    "shigley10_marin": Reference(
-        f"{_SHIGLEY10}, §6-9, eqs. 6-8, 6-18 to 6-20, 6-26, 6-29, Tables 6-2 and 6-5: "
-        "S_e' = 0.5 S_ut (700 MPa cap), Marin surface factor k_a = a S_ut^b, size factor, "
-        "k_c = 0.59 in torsion, reliability k_e = 1 - 0.08 z_a", "S/M", "§7.1",
-        "the surface-factor coefficients used are the revised table of the 11th ed. (2020), "
-        "not the 10th ed.'s; only the ground row was confirmed (open-source code quoting the "
-        "table), the machined, hot-rolled and as-forged rows are from memory"),
-    "shigley10_criteria": Reference(
-        f"{_SHIGLEY10}, §6-12, eqs. 6-40 to 6-43 and Tables 6-6 to 6-8: modified Goodman, "
-        "Gerber, ASME-elliptic, Soderberg and Langer first-cycle yield", "S/M", "§7.2",
-        "the single-stress Gerber form of Table 6-7 from memory"),
-    "shigley10_basquin": Reference(
-        f"{_SHIGLEY10}, §6-7 and §6-14: Basquin line S_f = a N^b between 10^3 and 10^6 cycles, "
-        "fatigue-strength fraction f, equivalent fully reversed amplitude; applied to torsion "
-        "with S_su in place of S_ut (a project construction, docs/methods.md §7.3)", "S/M/D",
-        "§7.3",
-        "the edition that introduced the f formula is from memory; the torsional use of the "
-        "line is not printed in Shigley"),
-    "shigley10_miner": Reference(
-        f"{_SHIGLEY10}, §6-15: Palmgren-Miner cumulative damage D = sum n_i/N_i (no damage "
-        "below the endurance limit)", "S", "§7.4"),
     # --- Shigley 9th ed. chain used by the strength study (pages read for these numbers) ----
     "shigley9_marin": Reference(
         f"{_SHIGLEY9}, §6-9: Marin equation eq. 6-18 (p. 287), surface factor eq. 6-19 with "
