@@ -70,12 +70,13 @@ def test_short_regime_2007_and_revised():
     # it joins the medium regime within 2.1 % (sqrt(1.042)). The revised form is never below 1.
     r, t = 24e-3, 2e-3
     L = 5.0 * (r * t) ** 0.5  # omega = 5
-    res = bk.en1993_critical_shear(L, r, t, 210e9)
+    res = bk.en1993_critical_shear(L, r, t, 210e9, short_form="2007")
     assert res.regime == "short"
     assert res.c_tau == pytest.approx((1 + 42 / 125) ** 0.5, rel=1e-12)
     rev = bk.en1993_critical_shear(L, r, t, 210e9, short_form="revised")
     assert rev.c_tau > 1.0
-    just_short = bk.en1993_critical_shear(9.999999 * (r * t) ** 0.5, r, t, 210e9)
+    just_short = bk.en1993_critical_shear(9.999999 * (r * t) ** 0.5, r, t, 210e9,
+                                          short_form="2007")
     medium = bk.en1993_critical_shear(10.0 * (r * t) ** 0.5, r, t, 210e9)
     assert just_short.tau_cr / medium.tau_cr == pytest.approx(1.0208, abs=1e-3)
 
