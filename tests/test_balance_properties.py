@@ -6,8 +6,9 @@
   (d_i/D)^4.
 * Springs in series carrying one torque (Shigley ch. 4 [M]): compliances add, so splitting a
   segment into two of the same section, or reordering the segments, changes nothing.
-* Mirror symmetry (DESIGN.md: vehicle axes ISO 8855, y to the left): a right side that is the
-  left mirrored in y has the same stiffness (zero mismatch) and the same design joint angles.
+* Mirror symmetry (docs/methods.md §3.1: vehicle axes ISO 8855, y to the left): a right side
+  that is the left mirrored in y has the same stiffness (zero mismatch) and the same design joint
+  angles.
 
 Tolerances: 1e-12 relative unless stated: the same double-precision arithmetic in another order.
 """

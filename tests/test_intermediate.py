@@ -1,8 +1,8 @@
 """Intermediate-shaft bearing placement, bearing reactions and rating life.
 
-Check values: mirror geometry (a symmetric layout must give the mirror length, reference notes
-§4.1 [DER]), brute-force scans, beam statics solved independently with numpy.linalg, hand
-calculations of ISO 281 formulas ([M], from memory, as in reference notes §4.2).
+Check values: mirror geometry (a symmetric layout must give the mirror length, docs/methods.md
+§5.1), brute-force scans, beam statics solved independently with numpy.linalg, hand calculations
+of the ISO 281 formulas (ISO 281:2007 from memory [M], docs/methods.md §5.3).
 """
 
 from __future__ import annotations
@@ -27,7 +27,7 @@ from shaftcheck.methods.intermediate_shaft import (
 from shaftcheck.studies.context import strut_hard_points
 
 MM = 1e-3
-#: the demo corner (shared/examples/strut_corner_demo.toml), as the example design holds it
+#: the invented demo corner of the example design wren_tubular.toml (left side)
 EXAMPLE = Path(__file__).resolve().parents[1] / "example_designs" / "wren_tubular.toml"
 DEMO = strut_hard_points(load_design(EXAMPLE), "left")
 TRAVEL = np.linspace(-0.08, 0.09, 35)
@@ -44,7 +44,7 @@ def poses():
 
 
 def test_symmetric_layout_returns_mirror_length(poses):
-    # notes §4.1 [DER]: with d = -y and a mirror-symmetric corner, I_R = M(I_L) gives equal
+    # docs/methods.md §5.1: with d = -y and a mirror-symmetric corner, I_R = M(I_L) gives equal
     # angles: length = |M(I_L) - output point| = 0.265 m; range chosen so no scan node hits it.
     # 1e-7 m: bounded Brent on a kinked objective (|.| has a corner at the optimum)
     left, right = poses
@@ -87,8 +87,9 @@ def test_placement_needs_zero_rack(poses):
 # --- reactions ---------------------------------------------------------------------------------
 
 def test_z_layout_couple_only_hand_case():
-    """Z layout (d parallel to b): F_O = 0 (notes §2.2), the end carries only the secondary
-    couple T tan(b/2), reacted as a force pair: |R_B| = |R_A| = T tan(b/2) / (length - offset)."""
+    """Z layout (d parallel to b): F_O = 0 (docs/methods.md §4.4), the end carries only the
+    secondary couple T tan(b/2), reacted as a force pair:
+    |R_B| = |R_A| = T tan(b/2) / (length - offset)."""
     d = -Y
     length, offset = 0.25, 0.035
     inboard = OUTPUT_POINT + length * d

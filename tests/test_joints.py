@@ -1,8 +1,8 @@
 """Joint functions: cross-checks against the exact vector models and invariants.
 
-Published/notes values are in tests/validation/test_kinematics_notes.py; here the closed forms
-are checked against independent computations (numeric differentiation, the exact Cardan vector
-model, vector identities).
+Regression values of the joint formulas are in tests/regression/test_regression_joint_kinematics.py;
+here the closed forms of docs/methods.md §4.2-§4.4 are checked against independent computations
+(numeric differentiation, the exact Cardan vector model, vector identities).
 """
 
 from __future__ import annotations
@@ -42,7 +42,7 @@ def _single(beta_deg):
 
 @pytest.mark.parametrize("beta", [10.0, 20.0, 30.0])
 def test_form_a_matches_exact_vector_model(beta):
-    # notes §1.1: Form A agrees with the explicit cross model to < 4e-7; ours is exact up to the
+    # docs/methods.md §4.2: the closed form agrees with the explicit cross model; exact up to the
     # 1e-9 error of the central difference (step 1e-5 rad)
     s1, s2, a0 = _single(beta)
     ratio = cardan_chain_speed_ratio([s1, s2], a0, [], THETA)
@@ -60,14 +60,14 @@ def test_output_angle_is_integral_of_speed_ratio():
 
 
 def test_acceleration_is_derivative_of_ratio():
-    # notes §1.1: "The sign is easy to get wrong; test it" - numeric d(ratio)/dtheta, 1e-7
+    # the sign of the acceleration is easy to get wrong: numeric d(ratio)/dtheta, 1e-7
     b, h = math.radians(20.0), 1e-5
     numeric = (cardan_speed_ratio(b, THETA + h) - cardan_speed_ratio(b, THETA - h)) / (2 * h)
     assert np.max(np.abs(numeric - cardan_output_acceleration(b, THETA))) < 1e-7
 
 
 def test_equivalent_angle_formula_against_exact_two_joint_model():
-    """Notes §1.4: assert the small-angle formula against the exact model to about 1 % for
+    """docs/methods.md §4.2: the small-angle formula against the exact model to about 1 % for
     angles <= 10 deg (forks in phase, joint angles given as plan h / side v components)."""
     d = math.radians
     for h1, v1, h2, v2 in [(6, 0, 4, 0), (6, 3, 4, 1), (3, 4, 4, 3), (0, 6, 6, 0), (8, 2, 3, 5)]:
@@ -88,7 +88,7 @@ def test_one_plane_equivalent_angle_is_compound_with_zero_v():
 
 
 def test_cv_moment_vector_identities():
-    # notes §2.2: M . a = M . b = T, M along the bisector; vectorised over random axes
+    # docs/methods.md §4.3: M . a = M . b = T, M along the bisector; vectorised over random axes
     rng = np.random.default_rng(1)
     a = rng.normal(size=(50, 3))
     a /= np.linalg.norm(a, axis=1, keepdims=True)
@@ -104,7 +104,7 @@ def test_cv_moment_vector_identities():
 
 
 def test_halfshaft_free_body_equilibrium():
-    # notes §2.2: M_I - M_O + (O - I) x F_O = 0 and F_O perpendicular to the shaft
+    # docs/methods.md §4.4: M_I - M_O + (O - I) x F_O = 0 and F_O perpendicular to the shaft
     inboard = np.array([0.01, 0.2, 0.31])
     outboard = np.array([-0.02, 0.66, 0.27])
     loads = halfshaft_loads(800.0, _u([0.0, 1.0, 0.05]), inboard, outboard, _u([0.1, 1.0, -0.2]))
@@ -115,7 +115,7 @@ def test_halfshaft_free_body_equilibrium():
 
 
 def test_halfshaft_z_layout_has_no_transverse_force():
-    # notes §2.2: "In a Z layout (d parallel to b), Delta = 0: no transverse force"
+    # docs/methods.md §4.4: in a Z layout (d parallel to b) there is no transverse force
     loads = halfshaft_loads(1000.0, [0.0, 1.0, 0.0], [0.0, 0.2, 0.31], [0.0, 0.66, 0.29],
                             [0.0, 1.0, 0.0])
     assert np.allclose(loads.force_at_outboard, 0.0, atol=1e-10)

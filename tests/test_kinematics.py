@@ -2,9 +2,9 @@
 
 Check values here come from closed-form geometry written out in each test (circle-circle
 intersection, circle about a pivot axis), from an independent scalar solver
-(scipy.optimize.least_squares over a rotation vector) and from invariants of the model in
-DESIGN.md "Strut corner". The demo corner is the invented corner of
-shared/examples/strut_corner_demo.toml (copied below in metres).
+(scipy.optimize.least_squares over a rotation vector) and from invariants of the strut model
+(docs/methods.md §3.2). The demo corner is the invented left corner of
+example_designs/wren_tubular.toml (copied below).
 """
 
 from __future__ import annotations
@@ -28,7 +28,7 @@ from shaftcheck.methods.halfshaft_geometry import (
 from shaftcheck.methods.table_corner import TableCorner
 
 MM = 1e-3
-#: shared/examples/strut_corner_demo.toml [suspension.left], mm
+#: example_designs/wren_tubular.toml [suspension.left], mm (an invented corner)
 DEMO_MM = dict(
     lower_arm_front=[80.0, 350.0, 185.0], lower_arm_rear=[-280.0, 365.0, 190.0],
     lower_ball_joint=[8.0, 700.0, 150.0], strut_top=[-55.0, 600.0, 820.0],
@@ -36,9 +36,9 @@ DEMO_MM = dict(
     wheel_centre=[0.0, 752.0, 300.0])
 DEMO_SPINDLE = [0.0, 0.99985, -0.0175]
 DEMO_OFFSET_MM = 18.0
-DEMO_INBOARD = np.array([12.0, 245.0, 280.0]) * MM  # from the demo file's comment
-TRAVEL = np.linspace(-0.080, 0.090, 41)  # demo file: reachable over -80 .. +90 mm
-RACK = np.linspace(-0.075, 0.075, 29)  # demo file: reachable over -75 .. +75 mm
+DEMO_INBOARD = np.array([12.0, 245.0, 280.0]) * MM  # [left] inboard_centre_mm of that file
+TRAVEL = np.linspace(-0.080, 0.090, 41)  # that file's travel_mm: -80 .. +90 mm
+RACK = np.linspace(-0.075, 0.075, 29)  # that file's rack_travel_mm: -75 .. +75
 
 
 def demo(shift_mm: dict | None = None) -> StrutHardPoints:
@@ -55,7 +55,7 @@ def demo_poses():
 
 
 def test_design_pose_is_reproduced():
-    # travel 0, rack 0 is the design position by definition (DESIGN.md); 1e-12 m = round-off
+    # travel 0, rack 0 is the design position by definition (docs/methods.md §3.2); 1e-12 m
     hp = demo()
     p = solve_strut(hp, [0.0], [0.0])
     for name in ("wheel_centre", "tie_rod_outer", "lower_ball_joint", "outboard_joint_centre"):
@@ -79,7 +79,7 @@ def test_vectorised_matches_scalar_solver(demo_poses):
 
 
 def test_model_invariants_over_grid(demo_poses):
-    """Every constraint of the model holds at every pose (DESIGN.md strut model); 1e-9 m."""
+    """Every constraint of the model holds at every pose (docs/methods.md §3.2); 1e-9 m."""
     hp, p = demo(), demo_poses
     lbj = p.lower_ball_joint
     # lower ball joint on its circle: distances to both pivots kept

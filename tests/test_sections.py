@@ -4,11 +4,11 @@ Sources beside each check:
 * J = integral of r^2 dA over the disc and annulus, done by sympy, must equal the closed form of
   Roark's Formulas for Stress and Strain, 7th ed., Table 10.1 (solid and hollow circle).
 * Shoulder-fillet K_ts: Pilkey & Pilkey, Peterson's Stress Concentration Factors, 3rd ed. (2008),
-  Chart 3.12 curve fit, check values from the reference notes sections_and_strength.md §3.1 and
-  §13 [C] (4 decimals printed, so +-0.00005); sharp-shoulder estimate 2.2 from Shigley's
-  Mechanical Engineering Design Table 7-1 (notes §3.1).
-* Spline: stiffness diameter d_minor + 0.25 (d_major - d_minor) (notes §2.2 [C], project rule),
-  stress on the minor diameter (notes §2.2: "never use d_eq for stress" [P]).
+  Chart 3.12 curve fit (docs/methods.md §6.1); check values are the fit evaluated by hand to
+  4 decimals (regression values, so +-0.00005); sharp-shoulder estimate 2.2 from Shigley's
+  Mechanical Engineering Design, 10th ed., Table 7-1.
+* Spline: stiffness diameter d_minor + 0.25 (d_major - d_minor) (project rule, docs/methods.md
+  §1.3), stress on the minor diameter (never on d_eq).
 * Whole side of an example design: springs in series (Shigley ch. 4 [M]) computed here by hand
   from the numbers in the file, against shaftcheck.methods.side_stiffness.
 """
@@ -70,14 +70,14 @@ def test_sympy_shear_at_the_surface():
 # --- segments ------------------------------------------------------------------------------------
 def test_spline_uses_equivalent_diameter_for_stiffness_and_minor_for_stress():
     s = Segment("spline", 0.03, 31e-3, minor_diameter=28.5e-3)
-    # notes §2.2: default rule d_eq = d_minor + 0.25 (d_major - d_minor) = 29.125 mm (exact)
+    # docs/methods.md §1.3: default rule d_eq = d_minor + 0.25 (d_major - d_minor) = 29.125 mm
     assert s.torsion_diameter == pytest.approx(29.125e-3, rel=1e-14)
     assert spline_stiffness_diameter(31e-3, 28.5e-3) == pytest.approx(29.125e-3, rel=1e-14)
     assert s.stress_diameter == 28.5e-3
     assert s.polar_moment == pytest.approx(polar_moment(29.125e-3), rel=1e-14)
     assert s.stress_polar_moment == pytest.approx(polar_moment(28.5e-3), rel=1e-14)
     given = Segment("spline", 0.03, 31e-3, minor_diameter=28.5e-3, stiffness_diameter=29.056e-3)
-    assert given.torsion_diameter == 29.056e-3  # notes §2.2 FE value used when given
+    assert given.torsion_diameter == 29.056e-3  # a given FE value is used as given
 
 
 @pytest.mark.parametrize("kwargs", [
@@ -95,7 +95,7 @@ def test_segment_rejects_impossible_geometry(kwargs):
 
 # --- stress concentration at steps ---------------------------------------------------------------
 @pytest.mark.parametrize("D_mm, d_mm, r_mm, expected", [
-    (37.5, 25.0, 2.5, 1.4126),   # D/d 1.5, r/d 0.10  (notes §3.1, §13 [C])
+    (37.5, 25.0, 2.5, 1.4126),   # D/d 1.5, r/d 0.10  (fit by hand, 4 decimals)
     (30.0, 25.0, 2.5, 1.3574),   # D/d 1.2, r/d 0.10
     (35.0, 25.0, 2.0, 1.4704),   # D/d 1.4, r/d 0.08
     (30.0, 25.0, 1.25, 1.5600),  # D/d 1.2, r/d 0.05
@@ -104,7 +104,7 @@ def test_step_kts_pilkey_chart_3_12(D_mm, d_mm, r_mm, expected):
     big = Segment("solid", 0.1, D_mm * 1e-3, fillet_radius=r_mm * 1e-3)
     small = Segment("solid", 0.3, d_mm * 1e-3)
     (step,) = step_concentrations([big, small])
-    assert step.kts == pytest.approx(expected, abs=5e-5)  # 4 decimals printed in the notes
+    assert step.kts == pytest.approx(expected, abs=5e-5)  # 4 decimals evaluated by hand
     assert step.valid
     assert step.small_index == 1
     assert step.large_diameter == pytest.approx(D_mm * 1e-3)
@@ -192,7 +192,7 @@ def test_segment_stresses_apply_kts_to_the_small_segment():
     T = 1000.0
     segs = [Segment("solid", 0.1, 37.5e-3, fillet_radius=2.5e-3), Segment("solid", 0.3, 25e-3)]
     big, small = segment_stresses(segs, T)
-    # notes §1: 325.949 MPa nominal at d25; x 1.4126 (notes §3.1) at the fillet
+    # by hand: 16 T/(pi d^3) = 325.949 MPa nominal at d25; x 1.4126 (fit above) at the fillet
     assert small.nominal / 1e6 == pytest.approx(325.949, abs=0.0005)
     assert small.peak == pytest.approx(small.nominal * 1.4126, rel=5e-5)
     assert big.kts == 1.0 and big.peak == big.nominal
@@ -216,7 +216,7 @@ def test_series_with_rigid_elements():
 
 
 def test_mismatch_definition():
-    # DESIGN.md: mismatch = 100 |kL - kR| / mean; 8688.9 vs 4678.6 (notes §1) -> 60.0 %
+    # docs/methods.md §1.4: mismatch = 100 |kL - kR| / mean; 8688.9 vs 4678.6 -> 60.0 %
     assert mismatch_pct(8688.9, 4678.6) == pytest.approx(100 * 4010.3 / 6683.75, rel=1e-12)
     assert mismatch_pct(1.0, 1.0) == 0.0
     assert mismatch_pct(3.0, 1.0) == mismatch_pct(1.0, 3.0)

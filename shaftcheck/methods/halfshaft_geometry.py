@@ -6,9 +6,9 @@ y left, z up).
 * Strut corner: :func:`solve_strut` (model and method in :mod:`shaftcheck.methods.strut_corner`).
 * Table corner: :class:`~shaftcheck.methods.table_corner.TableCorner` (poses interpolated on
   the travel x rack grid, no extrapolation).
-* Joint geometry (reference notes kinematics_and_torque_steer.md §3.2, key ``notes_kin_geometry``):
-  shaft axis a_s = (O - I)/L, inboard angle arccos(d . a_s), outboard angle arccos(a_s . b),
-  plunge = L - L_design (positive longer). Angles are always between 3-D unit vectors (§1.5).
+* Joint geometry (docs/methods.md §3.4, key ``halfshaft_geometry``): shaft axis
+  a_s = (O - I)/L, inboard angle arccos(d . a_s), outboard angle arccos(a_s . b),
+  plunge = L - L_design (positive longer). Angles are always between 3-D unit vectors.
 """
 
 from __future__ import annotations
@@ -50,7 +50,8 @@ class JointGeometry(NamedTuple):
 def angle_between(u, v) -> np.ndarray:
     """Angle between 3-D vectors [rad]: arccos of the clipped dot product of their unit vectors.
 
-    Reference notes §1.5 ("always compute the angle between two 3-D unit vectors").
+    Joint angles are always such 3-D angles, never built from projections (docs/methods.md
+    §3.4).
     """
     return np.arccos(np.clip(np.sum(unit(u) * unit(v), axis=-1), -1.0, 1.0))
 
@@ -62,7 +63,7 @@ def joint_geometry(inboard_centre, output_axis, outboard_centre, spindle_axis) -
     intermediate shaft) output axis d, towards the wheel. outboard_centre (..., 3) [m]: outboard
     joint centre O. spindle_axis (..., 3): wheel spindle axis b, outboard.
     Inboard angle = angle(d, a_s), outboard angle = angle(a_s, b), a_s = (O - I)/|O - I|
-    (reference notes §3.2 [DER]; DESIGN.md "Joint angles").
+    (docs/methods.md §3.4, ``halfshaft_geometry``).
     """
     rel = np.asarray(outboard_centre, float) - np.asarray(inboard_centre, float)
     length = np.linalg.norm(rel, axis=-1)
@@ -79,7 +80,7 @@ def halfshaft_sweep(poses: CornerPoses, inboard_centre, output_axis,
     powertrain. design_length [m]: joint-centre distance at design; default = the length at the
     pose of the grid where travel and rack are both zero (ValueError if the grid has none).
     Returns inboard_angle, outboard_angle [rad], length, plunge [m] as (nt, nr) arrays and
-    shaft_axis (nt, nr, 3). Plunge = L - L_design, positive longer (reference notes §3.2).
+    shaft_axis (nt, nr, 3). Plunge = L - L_design, positive longer (docs/methods.md §3.4).
     """
     geo = joint_geometry(inboard_centre, output_axis, poses.outboard_joint_centre,
                          poses.spindle_axis)

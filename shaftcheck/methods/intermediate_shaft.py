@@ -3,13 +3,12 @@
 SI throughout: lengths [m], angles [rad], torque [N*m], forces [N], speed [rad/s], life in
 revolutions, seconds or metres (the caller converts to hours and km).
 
-* Placement (DESIGN.md "Bearing placement"; reference notes kinematics_and_torque_steer.md §4.1,
-  key ``notes_kin_intermediate``): the right halfshaft's inboard joint sits at
-  output_point + length * output_axis; choose length inside the allowed range to minimise
-  max over travel of max(|b_in,L - b_in,R|, |b_out,L - b_out,R|) at zero rack, with
-  scipy.optimize.minimize_scalar(method="bounded") on the best interval of a coarse scan (the
-  objective is a maximum of absolute values: kinked and possibly multimodal).
-* Bearing loads (reference notes §2.2 shaft free body, §4.2, ``notes_kin_cv_moment``): at the
+* Placement (docs/methods.md §5.1, key ``intermediate_shaft_placement``): the right
+  halfshaft's inboard joint sits at output_point + length * output_axis; choose length inside
+  the allowed range to minimise max over travel of max(|b_in,L - b_in,R|, |b_out,L - b_out,R|)
+  at zero rack, with scipy.optimize.minimize_scalar(method="bounded") on the best interval of a
+  coarse scan (the objective is a maximum of absolute values: kinked and possibly multimodal).
+* Bearing loads (docs/methods.md §5.2; shaft free body §4.4, ``cv_joint_bisector_moment``): at the
   intermediate shaft's outer end the inboard joint puts the secondary couple -M_I (transverse
   part) and the halfshaft's transverse force F_O on the intermediate shaft. The shaft is a beam on
   two simple supports, the differential output point (s = 0) and the bearing (s = length -
@@ -164,7 +163,7 @@ def bearing_reactions(torque, output_point, output_axis, length, bearing_offset,
     length [m] (output point -> right inboard joint I); bearing_offset [m]; outboard_centre
     and spindle_axis (..., 3): the right halfshaft's outboard joint centre [m] and spindle.
     End loads at I on the intermediate shaft: moment -M_I (its transverse part, magnitude
-    T tan(b_i/2)) and force +F_O (reaction of the halfshaft's -F_O), reference notes §2.2 [DER].
+    T tan(b_i/2)) and force +F_O (reaction of the halfshaft's -F_O), docs/methods.md §4.4.
     Beam on supports at s = 0 and s = a = length - bearing_offset (a > 0), load at s = length:
     R_B = (d x M_t - length F_r) / a, R_A = -F_r - R_B (force and moment equilibrium).
     """
@@ -189,7 +188,7 @@ def rating_life(dynamic_rating, load, exponent: float = BALL_LIFE_EXPONENT):
     """ISO 281 basic rating life L10 = (C/P)^p * 10^6 [revolutions] ([M], key iso281_l10).
 
     dynamic_rating C [N], equivalent dynamic load P [N] (> 0), exponent p = 3 ball, 10/3 roller.
-    Example (reference notes §4.2 [DER]): C = 20 kN, P = 1 kN -> 8000e6 revolutions.
+    Example (hand calculation): C = 20 kN, P = 1 kN -> 8000e6 revolutions.
     """
     return (np.asarray(dynamic_rating, float) / np.asarray(load, float)) ** exponent * 1e6
 

@@ -3,7 +3,7 @@
 A side is springs in series carrying one torque (``shigley_ch4_series``): the intermediate
 shaft's segments (when present), the inboard joint, the halfshaft's segments and the outboard
 joint. A joint without a given stiffness is rigid. Mismatch = 100 |k_L - k_R| / mean(k_L, k_R)
-(DESIGN.md). SI: stiffness [N*m/rad], length [m].
+(project convention, docs/methods.md §1.4). SI: stiffness [N*m/rad], length [m].
 """
 
 from __future__ import annotations
@@ -59,7 +59,7 @@ def side_stiffness(side) -> SideStiffness:
 
 
 def mismatch_pct(k_left: float, k_right: float) -> float:
-    """100 |k_L - k_R| / mean(k_L, k_R) [%] (DESIGN.md)."""
+    """100 |k_L - k_R| / mean(k_L, k_R) [%] (relative to the mean; docs/methods.md §1.4)."""
     if math.isinf(k_left) or math.isinf(k_right):
         return math.nan
     return 100.0 * abs(k_left - k_right) / (0.5 * (k_left + k_right))

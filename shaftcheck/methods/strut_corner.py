@@ -3,8 +3,7 @@
 SI throughout: points [m], travel and rack [m], angles [rad]. ISO 8855 vehicle axes (x forward,
 y left, z up); the left corner is on +y.
 
-Model (DESIGN.md "Strut corner"; reference notes kinematics_and_torque_steer.md §3.2 model (C),
-key ``macpherson_strut_closure``):
+Model (project model, docs/methods.md §3.2, key ``macpherson_strut_closure``):
 
 * the lower ball joint L swings on a circle about the lower-arm pivot axis (front -> rear pivot);
 * the upright (knuckle) is a rigid body carrying the wheel centre W, the spindle axis b, the
@@ -137,7 +136,7 @@ class CornerPoses:
         u = unit(z_hat - (z_hat . b) b) is the unit vector in the wheel's mid-plane (normal b, the
         spindle axis) pointing most nearly up, so C lies R below the wheel centre W in that plane;
         camber tilts it with the wheel. C is on the ground (z = 0) only when the ground is there.
-        Convention of this project (DESIGN.md, torque-steer model), not a published definition.
+        Convention of this project (docs/methods.md §3.4), not a published definition.
         """
         z = np.array([0.0, 0.0, 1.0])
         b = self.spindle_axis
@@ -280,7 +279,7 @@ def solve_strut(hp: StrutHardPoints, travel, rack, side: str = "left") -> Corner
 
     Returns CornerPoses with (nt, nr, 3) arrays. Raises UnreachablePoseError (travel and rack in
     mm) for the first pose, in travel-major order, that the linkage cannot reach.
-    Model and method: module docstring; reference notes §3.2 model (C) (``macpherson_strut_closure``).
+    Model and method: module docstring; docs/methods.md §3.2 (``macpherson_strut_closure``).
     """
     travel = np.atleast_1d(np.asarray(travel, dtype=float))
     rack = np.atleast_1d(np.asarray(rack, dtype=float))

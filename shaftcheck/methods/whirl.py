@@ -47,7 +47,7 @@ def uniform_beam_frequency(length: float, bending_stiffness: float, mass_per_len
     (from memory); key ``blevins_t8_1``.
 
     >>> EI = 207e9 * math.pi * 0.025**4 / 64; mA = 7850 * math.pi * 0.025**2 / 4
-    >>> round(uniform_beam_frequency(0.7, EI, mA), 1)          # notes §7 [C]
+    >>> round(uniform_beam_frequency(0.7, EI, mA), 1)          # hand calculation, pinned-pinned
     646.4
     """
     if ends not in BETA1_L:
@@ -173,7 +173,7 @@ def torsional_natural_frequency(stiffness: float, inertia: float,
     Source: W. T. Thomson, *Theory of Vibration with Applications* (two-disc torsional system,
     from memory); key ``thomson_torsional``.
 
-    >>> round(torsional_natural_frequency(5068.5, 1.0, 0.2) / (2 * math.pi), 3)  # notes §8
+    >>> round(torsional_natural_frequency(5068.5, 1.0, 0.2) / (2 * math.pi), 3)  # by hand
     27.755
     """
     if stiffness <= 0 or inertia <= 0 or other_inertia <= 0:
@@ -187,10 +187,10 @@ def shock_peak_torque_ratio(stiff: float, soft: float) -> float:
     """Peak-torque ratio of the stiffer to the softer side under equal shock energy.
 
     T_peak = sqrt(2 U k), hence T_1/T_2 = sqrt(k_1/k_2). Stiffnesses [N*m/rad].
-    Source: reference notes §9, energy argument (derivation, common practice); key
-    ``notes_shock_energy``.
+    Source: project derivation from the spring energy U = T^2/(2 k) (docs/methods.md §10.3);
+    key ``shock_energy_peak_torque``.
 
-    >>> round(shock_peak_torque_ratio(8688.9, 4678.6), 3)   # notes §9 [C]
+    >>> round(shock_peak_torque_ratio(8688.9, 4678.6), 3)   # sqrt(8688.9/4678.6) by hand
     1.363
     """
     if stiff <= 0 or soft <= 0:

@@ -3,7 +3,7 @@
 Run from anywhere: ``python tests/benchmarks/bench_sweep.py``. Prints the median time of the
 vectorised solver (both sides, joint angles and plunge included) over several runs, the time of
 the scalar per-pose reference solver on the same grid, and their largest disagreement.
-The corner is the invented demo of shared/examples/strut_corner_demo.toml.
+The corner is the invented left corner of example_designs/wren_tubular.toml.
 """
 
 from __future__ import annotations
@@ -26,7 +26,7 @@ from shaftcheck.methods.halfshaft_geometry import (  # noqa: E402
 from shaftcheck.studies.context import strut_hard_points  # noqa: E402
 
 MM = 1e-3
-#: the demo corner (shared/examples/strut_corner_demo.toml), as the example design holds it
+#: the invented demo corner, as the example design holds it
 EXAMPLE = Path(__file__).resolve().parents[2] / "example_designs" / "wren_tubular.toml"
 LEFT = strut_hard_points(load_design(EXAMPLE), "left")
 INBOARD = np.array([12.0, 245.0, 280.0]) * MM

@@ -1,9 +1,9 @@
-"""Benchmark: steady torque-steer grid and one transient solve. Run from anywhere:
+"""Benchmark: steady torque-steer grid and one transient solve. Run from the repository folder:
 
-    /work/venv/bin/python tests/benchmarks/bench_torque_steer.py
+    .venv/bin/python tests/benchmarks/bench_torque_steer.py
 
-Geometry: the reference notes' §3.3 worked corner (kinematics_and_torque_steer.md), translated
-rigidly by the wheel travel (motion model A); unequal shafts. Prints median wall times.
+Geometry: an invented worked corner (the one of tests/test_torquesteer.py), translated rigidly by
+the wheel travel; unequal shafts. Prints median wall times.
 """
 
 import statistics
