@@ -1,7 +1,7 @@
 """The ``shaftcheck`` command line: exit codes, JSON keys, help, starter file, materials, size.
 
-The contract is DESIGN.md ("Interfaces"): exit 0 all checks met, 1 some failed, 2 bad input;
-``Result.to_dict()`` keys; every command documented with an example (STYLE.md, practice 10).
+The contract is the README's ("Commands"): exit 0 all checks met, 1 some failed, 2 bad input;
+``Result.to_dict()`` keys; every command documented in the README with an example.
 Commands run as the installed console script (a subprocess, so exit codes and streams are real);
 help texts through ``typer.testing.CliRunner``.
 """
@@ -20,7 +20,7 @@ from shaftcheck.cli import app
 
 EXAMPLES = [TUBULAR, INTERMEDIATE]
 IDS = [p.stem for p in EXAMPLES]
-COMMANDS = [c.name or c.callback.__name__ for c in app.registered_commands]
+COMMANDS = [c.name or c.callback.__name__ for c in app.registered_commands if not c.hidden]
 SIDE_KEYS = [
     "torsional_stiffness_nm_per_deg",
     "shaft_torsional_stiffness_nm_per_deg",
@@ -73,7 +73,7 @@ def test_check_json_has_the_documented_keys(check_json, stem):
 
 @pytest.mark.parametrize("stem", IDS)
 def test_check_json_has_torque_steer_keys(check_json, stem):
-    """DESIGN.md: torque_steer.left|right.steering_axis_moment_nm and
+    """JSON contract: torque_steer.left|right.steering_axis_moment_nm and
     torque_steer.steering_wheel_torque_nm (added with the torque-steer study)."""
     _, data, _ = check_json[stem]
     ts = data["torque_steer"]
@@ -87,10 +87,10 @@ def test_check_json_numbers_are_consistent(check_json, stem):
     _, data, _ = check_json[stem]
     kl = data["sides"]["left"]["torsional_stiffness_nm_per_deg"]
     kr = data["sides"]["right"]["torsional_stiffness_nm_per_deg"]
-    # DESIGN.md: mismatch = 100 |kL - kR| / mean(kL, kR); printed floats, 1e-9 relative
+    # docs/methods.md §1.4: mismatch = 100 |kL - kR| / mean(kL, kR); printed floats, 1e-9 rel.
     assert data["stiffness_mismatch_pct"] == pytest.approx(100 * abs(kl - kr) / ((kl + kr) / 2),
                                                            rel=1e-9)
-    # notes §9 / DESIGN.md: design torque = min(engine-limited, wheel slip), by hand from the file
+    # docs/methods.md §2.1: design torque = min(engine-limited, wheel slip), by hand from the file
     raw = load_dict(TUBULAR if stem == TUBULAR.stem else INTERMEDIATE)
     pt, v = raw["powertrain"], raw["vehicle"]
     assert pt.get("differential", "open") == "open"
@@ -202,7 +202,7 @@ def test_size_bad_side_is_bad_input():
 
 # --- every command -------------------------------------------------------------------------------
 def test_commands_are_the_documented_ones():
-    # DESIGN.md "Command line" table; more commands are welcome
+    # the README's command table; more commands are welcome
     for name in ("check", "report", "size", "bearing", "sweep", "tolerance", "materials", "new"):
         assert name in COMMANDS
 
@@ -224,7 +224,7 @@ def test_top_level_help_lists_every_command():
 
 @pytest.mark.parametrize("name", COMMANDS)
 def test_every_command_is_in_the_readme(name):
-    """STYLE.md practice 10: a test that every command is documented in the README."""
+    """Every command is documented in the README."""
     readme = (ROOT / "README.md").read_text(encoding="utf-8")
     assert re.search(rf"shaftcheck {name}\b", readme), f"`shaftcheck {name}` not in README.md"
 
@@ -251,7 +251,7 @@ def test_json_commands_run_on_the_examples(name):
 
 
 def test_sweep_json_shape():
-    # DESIGN.md: travel_mm[], rack_mm[] and per side travel x rack arrays
+    # JSON contract: travel_mm[], rack_mm[] and per side travel x rack arrays
     proc = run_cli(*SMOKE["sweep"])
     data = json.loads(proc.stdout)
     nt, nr = len(data["travel_mm"]), len(data["rack_mm"])
@@ -279,3 +279,30 @@ def test_report_writes_a_pdf_and_refuses_to_overwrite(tmp_path):
     again = run_cli("report", TUBULAR, "-o", out)
     assert again.returncode == 2 and len(again.stderr.splitlines()) == 1
     assert out.read_bytes() == data
+
+
+# --- optional tables and absurd walls (issue 16) ------------------------------------------------
+def test_report_of_a_design_without_loads(tmp_path):
+    """[loads] is optional in the format: report must work without it, as check does."""
+    design = write_modified(tmp_path, TUBULAR, lambda d: d.pop("loads"))
+    checked = run_cli("check", "--json", design)
+    assert checked.returncode in (0, 1), checked.stderr
+    out = tmp_path / "no loads.pdf"
+    proc = run_cli("report", design, "-o", out)
+    assert proc.returncode == checked.returncode, proc.stderr
+    assert out.read_bytes().startswith(b"%PDF") and "error" not in proc.stderr
+
+
+@pytest.mark.parametrize("command", ["size", "report", "check"])
+def test_wall_of_a_thousandth_of_a_millimetre_is_bad_input(tmp_path, command):
+    def thin(d):
+        tube = next(s for s in d["right"]["segments"] if "wall_mm" in s)
+        tube["wall_mm"] = 0.001
+
+    design = write_modified(tmp_path, TUBULAR, thin)
+    args = {"size": ["--side", "right"], "report": ["-o", tmp_path / "r.pdf"], "check": []}
+    proc = run_cli(command, design, *args[command])
+    assert proc.returncode == 2, proc.stderr
+    lines = proc.stderr.splitlines()
+    assert len(lines) == 1 and "wall_mm" in lines[0] and "internal error" not in lines[0]
+    assert not (tmp_path / "r.pdf").exists()

@@ -3,7 +3,7 @@
 The samples are drawn :data:`CHUNK` at a time and folded into running statistics
 (:class:`~shaftcheck.methods.tolerance_sampling.RunningSummary`): memory stays the same whatever
 the number of samples (about 10 MB of working arrays and 1.5 MB of histograms), time grows
-linearly (about 3 s per million samples on a 2-core machine, see
+linearly (about 2 s per million samples on a 2-core machine, see
 ``tests/benchmarks/bench_tolerance.py``). The number of samples is bounded by
 :data:`MAX_SAMPLES`. Results are reproducible for a given seed: the random stream is drawn in the
 same chunks on every run. Mean, standard deviation and the share over the limit are exact; the
