@@ -523,3 +523,13 @@ def test_the_temporary_lives_in_the_target_folder_and_is_gone_after(tmp_path, mo
     (src, dst), = seen
     assert src.parent == tmp_path and TEMP_PATTERN.fullmatch(src.name)
     assert dst == tmp_path / "x.csv" and _listing(tmp_path) == ["x.csv"]
+
+
+@pytest.mark.parametrize("given, expected", [("", "cannot write a file with an empty name"),
+                                             (".", ". is a folder"),
+                                             ("sub", "sub is a folder")])
+def test_report_name_that_is_empty_or_a_folder_gets_no_extension(tmp_path, given, expected):
+    (tmp_path / "sub").mkdir()
+    line = _one_line_error(run_cli("report", TUBULAR, "-o", given, cwd=tmp_path))
+    assert line == f"shaftcheck: error: {expected}"
+    assert _listing(tmp_path) == ["sub"] and _listing(tmp_path / "sub") == []
