@@ -533,3 +533,30 @@ def test_report_name_that_is_empty_or_a_folder_gets_no_extension(tmp_path, given
     line = _one_line_error(run_cli("report", TUBULAR, "-o", given, cwd=tmp_path))
     assert line == f"shaftcheck: error: {expected}"
     assert _listing(tmp_path) == ["sub"] and _listing(tmp_path / "sub") == []
+
+
+def test_read_only_file_is_not_replaced_even_with_overwrite(tmp_path):
+    """A file without write permission in a writable folder: refused, unchanged. As root the
+    check runs in a child that gave up root (root may write any file)."""
+    base = Path(tempfile.mkdtemp(prefix="shaftcheck-ro-file-"))
+    try:
+        base.chmod(0o777)
+        target = base / "signed-off.csv"
+        target.write_text("released\n", encoding="utf-8")
+        target.chmod(0o444)
+
+        def attempt():
+            return write_text_atomic(target, "new\n", overwrite=True)
+
+        if IS_ROOT:
+            kind, text = _as_nobody(attempt)
+        else:
+            try:
+                kind, text = "ok", repr(attempt())
+            except OutputError as exc:
+                kind, text = "OutputError", str(exc)
+        assert (kind, text) == ("OutputError", f"cannot write {target}: the file is read-only")
+        assert target.read_text(encoding="utf-8") == "released\n"
+        assert _listing(base) == [target.name]
+    finally:
+        shutil.rmtree(base)
