@@ -282,36 +282,61 @@ def sweep(design: Path = DesignArg,
         print_sweep(data)
 
 
-@app.command()
-@guarded
-def pull(design: Path = DesignArg, json_: bool = JsonOpt,
-         map_: str | None = typer.Option(None, "--map", help="Write steering-wheel torque "
-                                             "over drive torque x travel (and roll) as CSV."),
-         overwrite: bool = typer.Option(False, help="Allow --map to replace an existing file.")):
-    """Torque steer: moment budget by mechanism, over travel, roll, steer and throttle; transient.
+MapOpt = typer.Option(None, "--map", help="Write steering-wheel torque over drive torque x "
+                      "travel (and roll) as CSV.")
+MapOverwriteOpt = typer.Option(False, help="Allow --map to replace an existing file.")
 
-    Example: shaftcheck pull example_designs/wren_tubular.toml
-    """
-    from shaftcheck.studies.torque_steer import pull_map_csv, pull_study
 
-    if map_ is not None:
+def _torque_steer(design: Path, json_: bool, map_: str | None, overwrite: bool) -> None:
+    if map_ is not None:  # refuse a target that cannot be written before any work
         from shaftcheck.output.files import check_target
 
         check_target(map_, overwrite=overwrite)
+    from shaftcheck.studies import torque_steer as ts_study
+    from shaftcheck.studies import transient as transient_study
+    from shaftcheck.studies.context import Context
+
     d = _load(design)
-    res = pull_study(d)
+    ctx = Context(d)
+    ts, checks = ts_study.run(d, ctx)
+    tr, _ = transient_study.run(d, ctx)
     if map_ is not None:
         from shaftcheck.output.files import write_text_atomic
 
-        write_text_atomic(map_, pull_map_csv(res), overwrite=overwrite)
+        write_text_atomic(map_, ts.throttle_map.to_csv(), overwrite=overwrite)
     if json_:
         from shaftcheck.studies.result import jsonable
 
-        _print_json(jsonable(res))
+        _print_json(jsonable({**ts.to_dict(), "transient": tr.to_dict(),
+                              "checks": [c.to_dict() for c in checks]}))
     else:
-        from shaftcheck.output.console import print_pull
+        from shaftcheck.output.console import print_torque_steer
 
-        print_pull(res)
+        print_torque_steer(ts, tr, checks)
+
+
+@app.command("torque-steer")
+@guarded
+def torque_steer(design: Path = DesignArg, json_: bool = JsonOpt, map_: str | None = MapOpt,
+                 overwrite: bool = MapOverwriteOpt):
+    """Torque steer: budget by mechanism, worst cases, lock and split-friction checks, transient.
+
+    The steady moments over travel, roll, steer and throttle (--map writes the throttle maps),
+    the three steering-wheel torque checks and the transient after a throttle step.
+
+    Example: shaftcheck torque-steer example_designs/wren_tubular.toml
+    """
+    _torque_steer(design, json_, map_, overwrite)
+
+
+@app.command("pull", hidden=True)
+@guarded
+def pull(design: Path = DesignArg, json_: bool = JsonOpt, map_: str | None = MapOpt,
+         overwrite: bool = MapOverwriteOpt):
+    """Old name of torque-steer, kept for one release."""
+    typer.echo("shaftcheck: note: 'pull' is now 'torque-steer'; the old name will be removed in "
+               "the next release", err=True)
+    _torque_steer(design, json_, map_, overwrite)
 
 
 @app.command()

@@ -20,8 +20,8 @@ from shaftcheck.errors import ShaftcheckError
 from shaftcheck.io.data_files import load_tube_sizes
 from shaftcheck.io.design_file import load_design
 from shaftcheck.methods.loads import (
-    differential_split,
     engine_limited_torque,
+    largest_side_share,
     load_cases,
     wheel_slip_torque,
 )
@@ -44,11 +44,11 @@ def test_wheel_slip_torque_notes_check():
     assert wheel_slip_torque(1.0, 18000.0, 0.30) == pytest.approx(2700.0, rel=1e-12)
 
 
-def test_differential_split():
-    assert differential_split("open", 1.0) == 0.5  # notes §9 [M/P]
-    assert differential_split("limited_slip", 3.0) == pytest.approx(0.75)  # TBR/(1+TBR) [M]
-    assert differential_split("limited_slip", 2.0) == pytest.approx(2 / 3)
-    assert differential_split("locked", math.inf) == 1.0
+def test_largest_side_share():
+    assert largest_side_share("open", 1.0) == 0.5  # open differential (docs/methods.md §2.1)
+    assert largest_side_share("limited_slip", 3.0) == pytest.approx(0.75)  # TBR/(1+TBR) [M]
+    assert largest_side_share("limited_slip", 2.0) == pytest.approx(2 / 3)
+    assert largest_side_share("locked", math.inf) == 1.0
 
 
 def _hand_cases(raw: dict) -> tuple[float, float]:

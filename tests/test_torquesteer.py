@@ -7,6 +7,8 @@ of the point chosen on the steering axis) need none. Independent references: sci
 (Rodrigues), scipy.optimize.brentq (tie-rod closure), numpy.linalg.lstsq (shaft equilibrium).
 """
 
+import json
+
 import numpy as np
 import pytest
 from hypothesis import given, settings
@@ -16,12 +18,12 @@ from shaftcheck.methods.drive_split import (
     DEFAULT_EFFICIENCY,
     JointEfficiency,
     bias_split,
-    differential_split,
     joint_efficiency,
+    quasi_static_side_torques,
     wheel_torque,
 )
+from shaftcheck.methods.joints import cv_joint_moment
 from shaftcheck.methods.torque_steer import (
-    cv_joint_moment,
     forward_direction,
     misalign_powertrain,
     mount_pull,
@@ -29,17 +31,24 @@ from shaftcheck.methods.torque_steer import (
     powertrain_roll_angle,
     rack_and_steering_wheel,
     rack_gains,
-    rotate_about_axis,
     rotate_powertrain,
     steering_axis_moments,
     steering_wheel_gains,
 )
+from shaftcheck.methods.vectors import rotate
+
+
+def rotate_about_axis(v, axis, angle):
+    """Rotation about a direction of any length (the shared helper wants a unit axis)."""
+    axis = np.asarray(axis, float)
+    return rotate(v, axis / np.linalg.norm(axis, axis=-1, keepdims=True), angle)
 
 SIGMA, TAU, R = np.radians(13.0), np.radians(3.0), 0.29
 
 
 def corner(side, dz=0.0, inboard=(0.0, 0.20, 0.31)):
-    """Reference notes §3.3 corner [DER], translated by dz [m]; right mirrors left in y."""
+    """An invented worked corner (sigma 13 deg, caster 3 deg, scrub 10 mm, R 0.29 m, outboard
+    joint centre on the steering axis), translated by dz [m]; right mirrors left in y."""
     m = np.array([1.0, 1.0 if side == "left" else -1.0, 1.0])
     k = np.array([-np.tan(TAU), -np.tan(SIGMA), 1.0])
     k /= np.linalg.norm(k)
@@ -57,7 +66,7 @@ def corner(side, dz=0.0, inboard=(0.0, 0.20, 0.31)):
 @pytest.mark.parametrize("beta_deg, mag, secondary", [(10, 1003.82, 87.49), (20, 1015.43, 176.33),
                                                       (30, 1035.28, 267.95)])
 def test_cv_moment_magnitude_and_secondary_couple(beta_deg, mag, secondary):
-    # reference notes §2.2 check table [DER], T = 1000 N*m; printed to 2 decimals -> abs 5e-3
+    # T / cos(b/2) and T tan(b/2) by hand (docs/methods.md §4.3), T = 1000 N*m; 2 decimals
     b = np.radians(beta_deg)
     a_in, b_out = np.array([1.0, 0, 0]), np.array([np.cos(b), np.sin(b), 0])
     m = cv_joint_moment(1000.0, a_in, b_out)
@@ -108,7 +117,7 @@ def test_point_on_axis_does_not_matter_and_non_z_force_pair():
     assert abs(base.shaft_force) > 1e-3
     for name in ("tyre_force", "joint_moment", "shaft_force", "total"):
         assert getattr(moved, name) == pytest.approx(getattr(base, name), rel=1e-12, abs=1e-10)
-    # independent force pair: solve L a_s x F = Delta for F (least squares), reference notes §2.2
+    # independent force pair: solve L a_s x F = Delta for F (least squares), docs/methods.md §4.4
     o, i = c["outboard"], c["inboard"]
     a_s = (o - i) / np.linalg.norm(o - i)
     ts = 800.0
@@ -177,6 +186,7 @@ def test_rack_gain_matches_tie_rod_closure_and_sign(arm_x):
 
 
 def test_rodrigues_matches_scipy_rotation():
+    # methods.vectors.rotate (the one Rodrigues rotation of the package) against scipy's Rotation
     from scipy.spatial.transform import Rotation
 
     rng = np.random.default_rng(1)
@@ -184,7 +194,7 @@ def test_rodrigues_matches_scipy_rotation():
     angle = rng.uniform(-3, 3, size=50)
     e = axis / np.linalg.norm(axis, axis=1, keepdims=True)
     expected = Rotation.from_rotvec(e * angle[:, None]).apply(v)
-    assert rotate_about_axis(v, axis, angle) == pytest.approx(expected, abs=1e-12)
+    assert rotate(v, e, angle) == pytest.approx(expected, abs=1e-12)
 
 
 def test_roll_angle_sign_and_size():
@@ -208,7 +218,7 @@ def test_misalignment_zero_and_equivalence():
 
 
 def test_mount_pull_pitch_keeps_symmetry_roll_about_x_breaks_it():
-    # reference notes §4.1 [DER]: pitch about an axis parallel to y moves both inboard centres
+    # docs/methods.md §5.1: pitch about an axis parallel to y moves both inboard centres
     # alike and keeps symmetry; rotation about a non-lateral axis breaks it
     left = corner("left")
     right = corner("right", 0.0, (0.0, -0.20, 0.31))
@@ -224,22 +234,22 @@ def test_mount_pull_pitch_keeps_symmetry_roll_about_x_breaks_it():
 
 
 def test_bias_split_and_differential_kinds():
-    # reference notes §5.3 [DER]: TBR 3 allows 75/25
+    # definition of the torque bias ratio (docs/methods.md §12.1): TBR 3 allows 75/25
     assert bias_split(3.0) == pytest.approx(0.75)
-    tl, tr = differential_split(1000.0, "open", capacity_left=232.0)
+    tl, tr = quasi_static_side_torques(1000.0, "open", capacity_left=232.0)
     assert (tl, tr) == (232.0, 232.0)
-    tl, tr = differential_split(1000.0, "limited_slip", 3.0, capacity_left=232.0)
+    tl, tr = quasi_static_side_torques(1000.0, "limited_slip", 3.0, capacity_left=232.0)
     assert (tl, tr) == (232.0, 696.0)
-    tl, tr = differential_split(1000.0, "locked", capacity_right=232.0)
+    tl, tr = quasi_static_side_torques(1000.0, "locked", capacity_right=232.0)
     assert (tl, tr) == (768.0, 232.0)
-    assert differential_split(600.0, "limited_slip", 3.0) == (300.0, 300.0)
+    assert quasi_static_side_torques(600.0, "limited_slip", 3.0) == (300.0, 300.0)
     with pytest.raises(ValueError):
-        differential_split(1.0, "viscous")
+        quasi_static_side_torques(1.0, "viscous")
 
 
 def test_efficiency_defaults_inside_the_remembered_band():
-    # reference notes §2.4 [M, from memory]: ball fixed joints 99.5-99.9 % small angles,
-    # ~97-98 % near 40 deg; tripods more efficient
+    # from memory, no published value (docs/methods.md §4.6): ball fixed joints 99.5-99.9 % at
+    # small angles, ~97-98 % near 40 deg; tripods more efficient
     fixed = DEFAULT_EFFICIENCY["fixed_ball"]
     assert 0.995 <= fixed(0.0) <= 0.999
     assert 0.97 <= fixed(np.radians(40.0)) <= 0.98
@@ -252,7 +262,7 @@ def test_efficiency_defaults_inside_the_remembered_band():
 
 
 def test_efficiency_difference_steering_moment():
-    # reference notes §5.3 efficiency check [DER]: 0.5 % difference at 1000 N*m -> dT 5 N*m,
+    # by hand (docs/methods.md §12.3): 0.5 % difference at 1000 N*m -> dT 5 N*m,
     # dF 17.24 N, dM 1.29 N*m with r_a 0.07498 m (printed to 2 decimals)
     lossless = JointEfficiency(1.0, 0.0, "test")
     lossy = JointEfficiency(0.995, 0.0, "test")
@@ -268,7 +278,7 @@ def test_efficiency_difference_steering_moment():
 
 
 def steered(c, delta):
-    """Knuckle points and spindle turned by delta [rad] about the steering axis (notes §3.2)."""
+    """Knuckle points and spindle turned by delta [rad] about the steering axis."""
     p, k = c["axis_point"], c["axis"]
     d = np.asarray(delta, float)
     out = dict(c)
@@ -279,8 +289,8 @@ def steered(c, delta):
 
 
 def test_steer_grid_angle_and_mirror():
-    # reference notes §3.3 [DER]: steer about k_L with O on the axis: outboard angle 29.009 deg at
-    # delta = 30 deg (printed to 3 decimals)
+    # regression value (project computation): steer about k_L with O on the axis gives an
+    # outboard angle of 29.009 deg at delta = 30 deg (printed to 3 decimals)
     delta = np.radians(np.linspace(-35.0, 35.0, 15))[:, None]
     torque = np.linspace(0.0, 1000.0, 6)[None, :]
     left = steering_axis_moments(**steered(corner("left"), delta), torque=torque, radius=R)
@@ -291,3 +301,202 @@ def test_steer_grid_angle_and_mirror():
     right = steering_axis_moments(**steered(corner("right", 0.0, (0, -0.2, 0.31)), -delta),
                                   torque=torque, radius=R)
     assert np.max(np.abs(left.total + right.total)) < 1e-9
+
+
+# ---- the torque-steer study on the example designs ----------------------------------------------
+
+
+@pytest.fixture(scope="module")
+def tubular_study():
+    from conftest import TUBULAR
+
+    from shaftcheck.io.design_file import load_design
+    from shaftcheck.studies import torque_steer
+    from shaftcheck.studies.context import Context
+
+    design = load_design(TUBULAR)
+    ctx = Context(design)
+    res, checks = torque_steer.run(design, ctx)
+    return design, ctx, res, {c.id: c for c in checks}
+
+
+def _pose(ctx, side, travel, rack):
+    """steering_axis_moments arguments of one pose, built independently of the study."""
+    design = ctx.design
+    p = ctx.poses(side, [travel], [rack])
+    return dict(inboard=ctx.inboard_centre(side), output_axis=design.side(side).output_axis,
+                outboard=p.outboard_joint_centre[0, 0], spindle=p.spindle_axis[0, 0],
+                contact=p.contact_patch(design.vehicle.loaded_radius)[0, 0],
+                axis_point=p.lower_ball_joint[0, 0], axis=p.steering_axis[0, 0]), p
+
+
+def _pointwise_pull(ctx, left_travel, right_travel, rack, torque, efficiency=True):
+    """Steering-wheel torque of one pose pair, one scalar call per side at the wheel torque
+    (no grid, no scaling): the check on the study's vectorised, linear-in-torque evaluation."""
+    design = ctx.design
+    moments, gains = {}, {}
+    for side, travel in (("left", left_travel), ("right", right_travel)):
+        vec, p = _pose(ctx, side, travel, rack)
+        wheel = torque
+        if efficiency:
+            m = steering_axis_moments(**vec, torque=1.0, radius=design.vehicle.loaded_radius)
+            s = design.side(side)
+            wheel = float(wheel_torque(torque, s.inboard_joint.kind, m.beta_inboard,
+                                       s.outboard_joint.kind, m.beta_outboard))
+        moments[side] = float(steering_axis_moments(
+            **vec, torque=wheel, radius=design.vehicle.loaded_radius).total)
+        inner = p.tie_rod_inner[0, 0]
+        gains[side] = float(rack_gains(inner, p.tie_rod_outer[0, 0], p.lower_ball_joint[0, 0],
+                                       p.steering_axis[0, 0]))
+    return float(rack_and_steering_wheel(moments["left"], moments["right"], gains["left"],
+                                         gains["right"],
+                                         design.vehicle.rack_travel_per_rev).steering_wheel_torque)
+
+
+def test_study_curves_match_single_pose_evaluation(tubular_study):
+    _, ctx, res, _ = tubular_study
+    T = ctx.design_torque
+    for k in (0, 7, len(res.heave.x) - 1):
+        x = float(res.heave.x[k])
+        assert res.heave.steering_wheel_torque[k] == pytest.approx(
+            _pointwise_pull(ctx, x, x, 0.0, T), rel=1e-9, abs=1e-9)
+    for k in (0, 4, len(res.roll.x) - 1):
+        r = float(res.roll.x[k])
+        assert res.roll.steering_wheel_torque[k] == pytest.approx(
+            _pointwise_pull(ctx, r, -r, 0.0, T), rel=1e-9, abs=1e-9)
+    for k in (0, len(res.steer.x) - 1):
+        assert res.steer.steering_wheel_torque[k] == pytest.approx(
+            _pointwise_pull(ctx, 0.0, 0.0, float(res.steer.x[k]), T), rel=1e-9, abs=1e-9)
+    # the headline is the ideal-joint model (no efficiency) at the design position
+    assert res.steering_wheel_torque == pytest.approx(
+        _pointwise_pull(ctx, 0.0, 0.0, 0.0, T, efficiency=False), rel=1e-9, abs=1e-9)
+    # the throttle map at the design torque is the heave curve, and zero at zero torque
+    m = res.throttle_map
+    assert m.drive_torque[-1] == pytest.approx(T)
+    assert m.heave_steering_wheel_torque[-1] == pytest.approx(res.heave.steering_wheel_torque)
+    assert np.all(m.heave_steering_wheel_torque[0] == 0.0)
+
+
+def test_budget_adds_up_and_worst_cases_are_the_curve_extremes(tubular_study):
+    _, _, res, _ = tubular_study
+    mech = {m.key: m for m in res.mechanisms}
+    # drive force + joint angles = the headline model, per side
+    for side in ("left", "right"):
+        base = getattr(mech["drive_force"], side) + getattr(mech["joint_angle"], side)
+        assert base == pytest.approx(res.side(side).total, rel=1e-12)
+    assert res.all_mechanisms.net == pytest.approx(sum(m.net for m in res.mechanisms))
+    for w in res.worst_cases:
+        curve = getattr(res, w.condition)
+        assert abs(w.steering_wheel_torque) == pytest.approx(
+            np.max(np.abs(curve.steering_wheel_torque)))
+        assert w.x in curve.x
+
+
+def test_lock_check_has_its_own_criterion(tubular_study, tmp_path):
+    from conftest import TUBULAR, write_modified
+
+    from shaftcheck.io.design_file import load_design
+    from shaftcheck.model.criteria import Criteria
+    from shaftcheck.studies import torque_steer
+    from shaftcheck.studies.context import Context
+
+    # defaults equal the existing limit (model/criteria.py: same basis)
+    c = Criteria()
+    assert c.steering_wheel_torque_lock_max_nm == c.steering_wheel_torque_max_nm
+    assert c.steering_wheel_torque_split_mu_max_nm == c.steering_wheel_torque_max_nm
+    _, _, res, checks = tubular_study
+    lock = checks["steering_wheel_torque_lock"]
+    assert lock.value == pytest.approx(np.max(np.abs(res.steer.steering_wheel_torque)))
+    assert lock.limit == c.steering_wheel_torque_lock_max_nm
+    # regression value of this project's model: 6.098 N*m at full rack travel (tubular example)
+    assert lock.value == pytest.approx(6.098, abs=5e-4)
+    assert not lock.passed
+    assert "steering_wheel_torque_split_mu" not in checks  # open differential
+
+    def looser_lock(d):
+        d.setdefault("criteria", {})["steering_wheel_torque_lock_max_nm"] = 7.0
+    design = load_design(write_modified(tmp_path, TUBULAR, looser_lock))
+    found = {c.id: c for c in torque_steer.run(design, Context(design))[1]}
+    assert found["steering_wheel_torque_lock"].passed
+    assert found["steering_wheel_torque_lock"].limit == 7.0
+    assert found["steering_wheel_torque"].limit == c.steering_wheel_torque_max_nm
+
+
+def test_split_mu_check_only_with_a_torque_biasing_differential(tmp_path):
+    from conftest import TUBULAR, write_modified
+
+    from shaftcheck.io.design_file import load_design
+    from shaftcheck.methods.drive_split import split_mu
+    from shaftcheck.studies import torque_steer
+    from shaftcheck.studies.context import Context
+
+    def lsd(d):
+        d["powertrain"]["differential"] = "limited_slip"
+        d["powertrain"]["torque_bias_ratio"] = 3.0
+    design = load_design(write_modified(tmp_path, TUBULAR, lsd))
+    res, checks = torque_steer.run(design, Context(design))
+    found = {c.id: c for c in checks}
+    sm = res.split_mu
+    assert [c.low_side for c in sm.cases] == ["left", "right"]
+    check = found["steering_wheel_torque_split_mu"]
+    assert check.value == pytest.approx(max(abs(c.steering_wheel_torque) for c in sm.cases))
+    v, ts = design.vehicle, design.torque_steer
+    expect = split_mu(ts.split_mu_low, ts.split_mu_high, v.front_axle_load / 2,
+                      v.loaded_radius, 3.0)
+    low_left = sm.cases[0]
+    assert low_left.torque_left == pytest.approx(float(expect.torque_low))
+    assert low_left.torque_right == pytest.approx(float(expect.torque_high))
+    assert "split_mu_bias" in res.to_dict()["references"]
+
+
+def test_json_section_keeps_the_interface_keys(tubular_study):
+    from shaftcheck.studies.result import jsonable
+
+    _, _, res, _ = tubular_study
+    d = jsonable(res.to_dict())
+    json.dumps(d)
+    for side in ("left", "right"):
+        assert d[side]["steering_axis_moment_nm"] == res.side(side).total
+    assert d["steering_wheel_torque_nm"] == res.steering_wheel_torque
+    assert {"design_point", "heave", "roll", "steer", "map", "worst_cases", "split_mu",
+            "rack_force_n", "design_torque_nm", "convention"} <= set(d)
+    assert d["heave"]["travel_mm"][0] == pytest.approx(res.heave.x[0] * 1e3)
+
+
+# ---- the command -------------------------------------------------------------------------------
+
+
+def test_torque_steer_command_and_hidden_alias(tmp_path):
+    from conftest import TUBULAR, run_cli
+
+    proc = run_cli("torque-steer", TUBULAR, "--json", "--map", tmp_path / "map.csv")
+    assert proc.returncode == 0, proc.stderr
+    data = json.loads(proc.stdout)
+    assert {"left", "steering_wheel_torque_nm", "transient", "checks"} <= set(data)
+    assert {c["id"] for c in data["checks"]} == {"steering_wheel_torque",
+                                                 "steering_wheel_torque_lock"}
+    assert data["transient"]["end_time_s"] == pytest.approx(0.5)
+    rows = (tmp_path / "map.csv").read_text().splitlines()
+    assert rows[0] == "condition,travel_mm,drive_torque_nm,steering_wheel_torque_nm"
+    assert len(rows) == 1 + 11 * (len(data["map"]["travel_mm"]) + len(data["map"]["roll_mm"]))
+    old = run_cli("pull", TUBULAR, "--json")
+    assert old.returncode == 0 and "torque-steer" in old.stderr
+    assert json.loads(old.stdout)["steering_wheel_torque_nm"] == data["steering_wheel_torque_nm"]
+    helptext = run_cli("--help").stdout
+    assert "torque-steer" in helptext and " pull " not in helptext
+
+
+def test_torque_steer_console_fits_80_columns():
+    import os
+    import subprocess
+
+    from conftest import INTERMEDIATE, ROOT, SHAFTCHECK_CMD
+
+    env = {**os.environ, "COLUMNS": "80", "TERM": "dumb", "NO_COLOR": "1"}
+    proc = subprocess.run([*SHAFTCHECK_CMD, "torque-steer", str(INTERMEDIATE)], cwd=ROOT,
+                          capture_output=True, text=True, env=env, timeout=120)
+    assert proc.returncode == 0, proc.stderr
+    lines = proc.stdout.splitlines()
+    assert max(len(x) for x in lines) <= 80
+    # numerical noise of the symmetric layout prints as 0, not as 1e-08 or -0.000
+    assert "e-0" not in proc.stdout and "-0.000" not in proc.stdout

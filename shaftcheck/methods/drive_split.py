@@ -1,10 +1,12 @@
-"""Unequal drive torques: differential split, split-mu with a limited-slip differential, and
-CV-joint efficiency falling with joint angle.
+"""Unequal drive torques: the side torques a differential passes, split friction with a
+limited-slip differential, and CV-joint efficiency falling with joint angle.
 
 SI throughout: torque [N*m], force [N], radius [m], angles [rad]. Arrays broadcast.
 
-Sources: reference notes kinematics_and_torque_steer.md §5.3 (quasi-static split-mu model [DER],
-torque bias ratio split TBR/(1 + TBR) [DER]) and §2.4 (joint efficiency, numbers from memory [M]).
+Sources (keys of :mod:`shaftcheck.model.references`): the quasi-static split-friction model and
+the torque-bias split TBR/(1 + TBR) are derived for this project (docs/methods.md §12.1-§12.2,
+``split_mu_bias``); the joint efficiencies are from memory, no published value confirmed
+(docs/methods.md §4.6, ``cv_joint_efficiency_estimate``).
 """
 
 from __future__ import annotations
@@ -20,7 +22,7 @@ def bias_split(torque_bias_ratio) -> np.ndarray:
     """Largest share of the carrier torque one side can take, TBR / (1 + TBR) [-].
 
     TBR = T_high / T_low >= 1; TBR 3 gives 0.75 (a 75/25 split), TBR 1 (open) gives 0.5
-    (reference notes §5.3 [DER], ``notes_ts_split_mu``).
+    (definition of the torque bias ratio, ``split_mu_bias``).
     """
     tbr = np.asarray(torque_bias_ratio, float)
     if np.any(tbr < 1.0):
@@ -45,14 +47,14 @@ def split_mu(mu_low, mu_high, wheel_load, radius, torque_bias_ratio, lever_arm=0
     """Drive torques on split friction with the low-mu wheel at its limit.
 
     T_low = mu_low F_z R; T_high = min(TBR T_low, mu_high F_z R); dF_x = (T_high - T_low) / R;
-    dM = dF_x r_a (reference notes §5.3 quasi-static model [DER], ``notes_ts_split_mu``).
+    dM = dF_x r_a (quasi-static model, ``split_mu_bias``).
 
     mu_low, mu_high [-]; wheel_load F_z [N] per wheel; radius R [m]; torque_bias_ratio [-] (1 for
     an open differential); lever_arm r_a [m] from
     :func:`shaftcheck.methods.torque_steer.disturbing_lever_arm`.
 
     >>> r = split_mu(0.2, 1.0, 4000.0, 0.29, 3.0, 0.07498)
-    >>> round(float(r.delta_moment), 2)   # notes §5.3 check value
+    >>> round(float(r.delta_moment), 2)   # regression value of this project's model
     119.97
     """
     fz, rad = np.asarray(wheel_load, float), np.asarray(radius, float)
@@ -64,18 +66,19 @@ def split_mu(mu_low, mu_high, wheel_load, radius, torque_bias_ratio, lever_arm=0
     return SplitMu(t_low, t_high, t_low / rad, t_high / rad, df, df * np.asarray(lever_arm, float))
 
 
-def differential_split(carrier_torque, kind, torque_bias_ratio=1.0, capacity_left=np.inf,
-                       capacity_right=np.inf):
-    """Quasi-static side torques (T_left, T_right) [N*m] from the carrier torque.
+def quasi_static_side_torques(carrier_torque, kind, torque_bias_ratio=1.0, capacity_left=np.inf,
+                              capacity_right=np.inf):
+    """Quasi-static side torques (T_left, T_right) [N*m] a differential passes from its carrier
+    torque when the wheels' grip may limit them.
 
     carrier_torque [N*m] >= 0 (sum of both sides delivered); kind: "open" | "limited_slip" |
     "locked"; capacity_left/right [N*m]: the torque each wheel can put down (mu F_z R), infinite
     when not limiting.
 
     * open: equal torque, at most the lower capacity each (an ideal open differential cannot pass
-      more to one side; notes §5.3 [M]);
+      more to one side; from memory);
     * limited_slip: the low side gets min(T/2, its capacity); the high side min(T - T_low,
-      TBR T_low, its capacity) (notes §5.3 [DER]);
+      TBR T_low, its capacity) (``split_mu_bias``);
     * locked: each side takes what its wheel allows, sharing equally while neither slips
       (equal radii and tyres assumed; common practice, no source [P]).
     """
@@ -96,13 +99,13 @@ def differential_split(carrier_torque, kind, torque_bias_ratio=1.0, capacity_lef
     return np.where(left_low, t_low, t_high), np.where(left_low, t_high, t_low)
 
 
-# ---- CV-joint efficiency (notes §2.4 [M]) ------------------------------------------------------
+# ---- CV-joint efficiency (from memory, ``cv_joint_efficiency_estimate``) -------------------
 
 
 @dataclass(frozen=True)
 class JointEfficiency:
     """Linear efficiency model eta(beta) = eta_0 - loss_per_rad |beta|, kept in [eta_min, 1]
-    (reference notes §2.4, from memory [M], ``notes_joint_efficiency``).
+    (from memory, ``cv_joint_efficiency_estimate``).
 
     eta_0 [-] at zero angle; loss_per_rad [1/rad]; eta_min [-] floor. source: provenance text.
     Override per joint by building your own instance.
@@ -123,18 +126,18 @@ class JointEfficiency:
         return np.clip(eta, self.eta_min, 1.0)
 
 
-_FROM_MEMORY = ("from memory [M], reference notes §2.4: ball fixed joints ~99.5-99.9 % at small "
-                "angles, ~97-98 % near 40 deg, losses roughly linear in angle; tripods more "
-                "efficient; no published value confirmed")
+_FROM_MEMORY = ("from memory: ball fixed joints ~99.5-99.9 % at small angles, ~97-98 % near "
+                "40 deg, losses roughly linear in angle; tripods more efficient; no published "
+                "value confirmed")
 
 #: Default efficiency per joint kind (from memory, see ``source``). fixed_ball: 99.8 % at 0 deg
 #: falling to 97.5 % at 40 deg; plunging_ball alike; tripod 99.9 % to about 98.7 % at 26 deg;
-#: cardan from the trunnion-friction estimate of notes §1.6 (order 1e-4 loss at 10 deg).
+#: cardan from a trunnion-friction estimate (order 1e-4 loss at 10 deg, project estimate).
 DEFAULT_EFFICIENCY: dict[str, JointEfficiency] = {
     "fixed_ball": JointEfficiency(0.998, 0.023 / np.radians(40.0), _FROM_MEMORY),
     "plunging_ball": JointEfficiency(0.998, 0.023 / np.radians(40.0), _FROM_MEMORY),
     "tripod": JointEfficiency(0.999, 0.012 / np.radians(26.0), _FROM_MEMORY),
-    "cardan": JointEfficiency(0.999, 0.002, "reference notes §1.6 [DER/M], order of magnitude"),
+    "cardan": JointEfficiency(0.999, 0.002, "trunnion-friction estimate, order of magnitude"),
 }
 
 
@@ -154,7 +157,7 @@ def wheel_torque(side_gear_torque, inboard_kind, beta_inboard, outboard_kind, be
     """Torque reaching the wheel [N*m]: T_side eta_in(beta_i) eta_out(beta_o).
 
     Equal side-gear torques with unequal joint angles give unequal wheel torques; their
-    steering-moment effect is dF_x r_a (notes §5.3 efficiency check [DER]).
+    steering-moment effect is dF_x r_a (``split_mu_bias``).
     side_gear_torque [N*m]; beta_inboard, beta_outboard [rad].
     """
     return (np.asarray(side_gear_torque, float)

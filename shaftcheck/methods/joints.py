@@ -3,11 +3,12 @@
 SI throughout: angles [rad], torque and moments [N*m], lengths [m], forces [N]. Every function
 broadcasts over numpy arrays.
 
-Sources (keys in :mod:`shaftcheck.model.references`): the project reference notes
-kinematics_and_torque_steer.md §1 (Cardan joints, ``notes_kin_cardan``), §2.2 (CV moment along the
-bisector, ``notes_kin_cv_moment``), §2.3 (tripod spider orbit, ``notes_kin_tripod``); all [DER]
-there, with the classic Cardan extremes cos(beta) ... 1/cos(beta) a standard result [M]
-(Seherr-Thoss, Schmelz & Aucktor, Universal Joints and Driveshafts, as a pointer only).
+Sources (keys in :mod:`shaftcheck.model.references`): Cardan joints, docs/methods.md §4.2
+(``cardan_kinematics``: standard results, e.g. Seherr-Thoss, Schmelz & Aucktor, Universal Joints
+and Driveshafts, 2nd ed., from memory; derived and checked by the project with a vector model);
+CV moment along the bisector and the halfshaft free body, §4.3-§4.4
+(``cv_joint_bisector_moment``, derived by the project); tripod spider orbit, §4.5
+(``tripod_orbit``, derived by the project).
 """
 
 from __future__ import annotations
@@ -17,11 +18,12 @@ from typing import NamedTuple
 
 import numpy as np
 
-from shaftcheck.methods.strut_corner import rotate, unit
+from shaftcheck.methods.vectors import rotate, unit
 
 
 class JointKind(NamedTuple):
-    """Properties of a joint kind. Angles [rad], plunge [m]; typical values are [P] notes §2.1."""
+    """Properties of a joint kind. Angles [rad], plunge [m]; typical values are common practice
+    (docs/methods.md §4.1)."""
 
     kind: str
     plunges: bool  # takes axial plunge
@@ -35,7 +37,7 @@ class JointKind(NamedTuple):
 #: suits a joint at wheel speed (below about 2000 rpm); faster propshafts are held lower.
 CARDAN_WORKING_ANGLE_LIMIT = math.radians(8.0)
 
-#: Joint kinds of a design file; typical values from reference notes §2.1 [P] (common practice).
+#: Joint kinds of a design file; typical values are common practice (docs/methods.md §4.1).
 JOINT_KINDS: dict[str, JointKind] = {
     "fixed_ball": JointKind("fixed_ball", False, True, math.radians(46.0), 0.0,
                             "fixed ball (ball-cage) joint, outboard; 45-48 deg typical [P]"),
@@ -53,7 +55,7 @@ JOINT_KINDS: dict[str, JointKind] = {
 # --- Cardan joint ---------------------------------------------------------------------------
 
 def cardan_speed_ratio(beta, theta):
-    """Output/input speed ratio of a Cardan joint, Form A of reference notes §1.1 [DER].
+    """Output/input speed ratio of a Cardan joint, docs/methods.md §4.2 [D].
 
     w2/w1 = cos(beta) / (1 - sin^2(beta) sin^2(theta)); beta = bend angle [rad], theta = input
     rotation [rad], theta = 0 with the input cross pin perpendicular to the plane of both shafts.
@@ -63,7 +65,7 @@ def cardan_speed_ratio(beta, theta):
 
 
 def cardan_output_angle(beta, theta):
-    """Output rotation phi [rad], tan(phi) = cos(beta) tan(theta) (notes §1.1 Form A), continuous
+    """Output rotation phi [rad], tan(phi) = cos(beta) tan(theta) (docs/methods.md §4.2), continuous
     over whole turns (phi = theta at multiples of 90 deg)."""
     beta, theta = np.asarray(beta, float), np.asarray(theta, float)
     turns = np.round(theta / np.pi) * np.pi
@@ -72,7 +74,7 @@ def cardan_output_angle(beta, theta):
 
 
 def cardan_max_twist_error(beta):
-    """Largest |phi - theta| [rad] = arctan[(1 - cos b) / (2 sqrt(cos b))] (notes §1.1 [DER])."""
+    """Largest |phi - theta| [rad] = arctan[(1 - cos b) / (2 sqrt(cos b))] (§4.2 [D])."""
     c = np.cos(np.asarray(beta, float))
     return np.arctan((1.0 - c) / (2.0 * np.sqrt(c)))
 
@@ -84,13 +86,13 @@ def cardan_speed_fluctuation(beta):
 
 
 def cardan_peak_excess(beta):
-    """Peak speed excess w2max/w1 - 1 = 1/cos(b) - 1 [-] (notes §1.1: the often quoted
+    """Peak speed excess w2max/w1 - 1 = 1/cos(b) - 1 [-] (docs/methods.md §4.2: the often quoted
     "speed error", 6.4 % at 20 deg; not the peak-to-peak fluctuation)."""
     return 1.0 / np.cos(np.asarray(beta, float)) - 1.0
 
 
 def cardan_output_acceleration(beta, theta):
-    """Output angular acceleration over w1^2 at constant input speed [-] (notes §1.1 Form A):
+    """Output angular acceleration over w1^2 at constant input speed [-] (§4.2 [D]):
     a2/w1^2 = cos b sin^2 b sin 2theta / (1 - sin^2 b sin^2 theta)^2."""
     beta, theta = np.asarray(beta, float), np.asarray(theta, float)
     s2 = np.sin(beta) ** 2
@@ -99,7 +101,7 @@ def cardan_output_acceleration(beta, theta):
 
 class CardanCouples(NamedTuple):
     """Ranges over a turn at input torque T [N*m]: output torque T cos b ... T / cos b, secondary
-    couple on the input shaft 0 ... T tan b, on the output shaft 0 ... T sin b (notes §1.2)."""
+    couple on the input shaft 0 ... T tan b, on the output shaft 0 ... T sin b (§4.2)."""
 
     output_torque_min: np.ndarray
     output_torque_max: np.ndarray
@@ -108,7 +110,7 @@ class CardanCouples(NamedTuple):
 
 
 def cardan_couples(torque, beta) -> CardanCouples:
-    """Cardan torque and secondary-couple ranges, torque [N*m], beta [rad] (notes §1.2 [DER])."""
+    """Cardan torque and secondary-couple ranges, torque [N*m], beta [rad] (§4.2)."""
     t, b = np.asarray(torque, float), np.asarray(beta, float)
     return CardanCouples(t * np.cos(b), t / np.cos(b), t * np.tan(b), t * np.sin(b))
 
@@ -120,13 +122,13 @@ def cardan_angle_flag(beta, limit: float = CARDAN_WORKING_ANGLE_LIMIT):
 
 def equivalent_angle_one_plane(beta1, beta2):
     """Equivalent single-joint angle of a two-joint shaft, one plane, forks in phase [rad]:
-    b_e = sqrt(|b1^2 - b2^2|) (notes §1.4 [DER], small-angle theory)."""
+    b_e = sqrt(|b1^2 - b2^2|) (docs/methods.md §4.2, small-angle theory)."""
     b1, b2 = np.asarray(beta1, float), np.asarray(beta2, float)
     return np.sqrt(np.abs(b1**2 - b2**2))
 
 
 def equivalent_angle_compound(beta1_h, beta1_v, beta2_h, beta2_v):
-    """Equivalent angle with compound (plan h, side v) angles [rad], forks in phase (notes §1.4):
+    """Equivalent angle with compound (plan h, side v) angles [rad], forks in phase (§4.2):
     b_e^4 = [(b1v^2 - b1h^2) - (b2v^2 - b2h^2)]^2 + 4 (b1v b1h - b2v b2h)^2."""
     h1, v1, h2, v2 = (np.asarray(x, float) for x in (beta1_h, beta1_v, beta2_h, beta2_v))
     quartic = ((v1**2 - h1**2) - (v2**2 - h2**2)) ** 2 + 4.0 * (v1 * h1 - v2 * h2) ** 2
@@ -155,7 +157,7 @@ def cardan_chain_speed_ratio(axes, input_arm, phases, theta, step: float = 1e-5)
     axes: shaft axes s_0 ... s_n (3-vectors, along the power flow); input_arm: input cross pin,
     perpendicular to s_0; phases (n-1,) [rad]: fork phase of each intermediate shaft (0 = the
     two forks of the shaft in one plane, "in phase"). Each cross has perpendicular arms: the
-    arm held by the next shaft is unit(s_k x a) (reference notes §1.1/§1.3 vector model [DER]).
+    arm held by the next shaft is unit(s_k x a) (vector model of docs/methods.md §4.2 [D]).
     The ratio is a central difference of the output rotation with step [rad]. For tests.
     """
     theta = np.asarray(theta, float)
@@ -169,9 +171,11 @@ def cardan_chain_speed_ratio(axes, input_arm, phases, theta, step: float = 1e-5)
 def cv_joint_moment(torque, a, b):
     """Moment passed by an ideal CV joint from member a to member b, (..., 3) [N*m].
 
-    M = T / cos(beta/2) * unit(a + b), beta = angle(a, b); a, b unit axes along the power flow
-    (..., 3), torque T [N*m] (...) with T = M . a = M . b. Uses cos(beta/2) = |a + b| / 2, so
-    M = 2 T (a + b) / |a + b|^2. Reference notes §2.2 [DER] (bisector-plane symmetry).
+    M = T / cos(beta/2) * unit(a + b), beta = angle(a, b); a, b axes along the power flow
+    (..., 3, normalised here), torque T [N*m] (...) signed about their common sense, with
+    T = M . a = M . b. Uses cos(beta/2) = |a + b| / 2, so M = 2 T (a + b) / |a + b|^2.
+    Derived for this project from the symmetry of the joint about the bisector plane
+    (``cv_joint_bisector_moment``); the secondary couple on either shaft is T tan(beta/2).
     """
     a, b = unit(a), unit(b)
     s = a + b
@@ -179,29 +183,35 @@ def cv_joint_moment(torque, a, b):
 
 
 def cv_secondary_couple(torque, beta):
-    """Secondary couple of an ideal CV joint on either shaft, T tan(beta/2) [N*m] (notes §2.2)."""
+    """Secondary couple of an ideal CV joint on either shaft, T tan(beta/2) [N*m]
+    (``cv_joint_bisector_moment``); torque [N*m], beta [rad]."""
     return np.asarray(torque, float) * np.tan(0.5 * np.asarray(beta, float))
 
 
 class HalfshaftLoads(NamedTuple):
-    """Loads of an ideal-CV halfshaft (reference notes §2.2 shaft free body [DER]), (..., 3).
+    """Loads of an ideal-CV halfshaft, shaft free body (``cv_joint_bisector_moment``), (..., 3).
 
     inboard_moment M_I [N*m]: moment of the inboard joint on the shaft. outboard_moment M_O
     [N*m]: moment of the shaft on the hub. force_at_outboard F_O [N]: transverse force on the
-    shaft at O (the shaft takes -F_O at I; the hub takes -F_O at O).
+    shaft at O (the shaft takes -F_O at I; the hub takes -F_O at O). shaft_axis a_s [-] and
+    length L [m] of the shaft (inboard to outboard joint centre).
     """
 
     inboard_moment: np.ndarray
     outboard_moment: np.ndarray
     force_at_outboard: np.ndarray
+    shaft_axis: np.ndarray
+    length: np.ndarray
 
 
 def halfshaft_loads(torque, output_axis, inboard_centre, outboard_centre, spindle_axis):
-    """Joint moments and transverse force pair of a halfshaft at torque T [N*m] (notes §2.2).
+    """Joint moments and transverse force pair of a halfshaft at torque T [N*m].
 
-    output_axis d, spindle_axis b: unit (..., 3); inboard_centre I, outboard_centre O (..., 3)
-    [m]. a_s = (O - I)/L; M_I = T/cos(b_i/2) unit(d + a_s); M_O = T/cos(b_o/2) unit(a_s + b);
-    F_O = ((M_O - M_I) x a_s) / L.
+    output_axis d, spindle_axis b: (..., 3) [-]; inboard_centre I, outboard_centre O (..., 3)
+    [m]; torque T [N*m] (...) signed about the power flow. a_s = (O - I)/L;
+    M_I = T/cos(b_i/2) unit(d + a_s); M_O = T/cos(b_o/2) unit(a_s + b); the shaft carries no
+    moment about its ends except the joints', so moment balance about I gives the force pair
+    F_O = ((M_O - M_I) x a_s) / L (``cv_joint_bisector_moment``). Everything broadcasts.
     """
     rel = np.asarray(outboard_centre, float) - np.asarray(inboard_centre, float)
     length = np.linalg.norm(rel, axis=-1, keepdims=True)
@@ -209,11 +219,11 @@ def halfshaft_loads(torque, output_axis, inboard_centre, outboard_centre, spindl
     m_in = cv_joint_moment(torque, output_axis, shaft)
     m_out = cv_joint_moment(torque, shaft, spindle_axis)
     force = np.cross(m_out - m_in, shaft) / length
-    return HalfshaftLoads(m_in, m_out, force)
+    return HalfshaftLoads(m_in, m_out, force, shaft, length[..., 0])
 
 
 def tripod_orbit_radius(pitch_radius, beta):
     """Orbit radius of a tripod spider centre, e = r (1 - cos b) / (2 cos b) [m]; the spider
-    orbits three times per revolution. pitch_radius r [m], beta [rad]. Notes §2.3 [DER]."""
+    orbits three times per revolution. pitch_radius r [m], beta [rad]. docs/methods.md §4.5 [D]."""
     c = np.cos(np.asarray(beta, float))
     return np.asarray(pitch_radius, float) * (1.0 - c) / (2.0 * c)

@@ -11,20 +11,23 @@ from __future__ import annotations
 import math
 
 
-def differential_split(differential: str, torque_bias_ratio: float) -> float:
+def largest_side_share(differential: str, torque_bias_ratio: float) -> float:
     """Largest fraction of axle torque one side can receive [-].
 
-    open: 1/2; limited_slip: TBR/(1 + TBR) (notes §9 [M], §5.3 [DER]); locked: 1 (one wheel can
-    take all of it when the other is unloaded).
+    open: 1/2; limited_slip: TBR/(1 + TBR) (docs/methods.md §2.1;
+    :func:`shaftcheck.methods.drive_split.bias_split`); locked: 1 (one wheel can take all of it
+    when the other is unloaded).
 
-    >>> differential_split("limited_slip", 3.0)
+    >>> largest_side_share("limited_slip", 3.0)
     0.75
     """
+    from shaftcheck.methods.drive_split import bias_split
+
     if differential == "open":
         return 0.5
     if differential == "locked" or math.isinf(torque_bias_ratio):
         return 1.0
-    return torque_bias_ratio / (1.0 + torque_bias_ratio)
+    return float(bias_split(torque_bias_ratio))
 
 
 def engine_limited_torque(engine_torque: float, first_gear: float, final_drive: float,
@@ -55,7 +58,7 @@ def load_cases(design) -> dict:
     engine-limited torque without the dynamic factor at the differential's largest split.
     """
     pt, v = design.powertrain, design.vehicle
-    split = differential_split(pt.differential, pt.torque_bias_ratio)
+    split = largest_side_share(pt.differential, pt.torque_bias_ratio)
     engine = engine_limited_torque(pt.engine_torque, pt.first_gear_ratio, pt.final_drive_ratio,
                                    pt.efficiency, split, pt.dynamic_factor)
     slip = wheel_slip_torque(v.tyre_mu, v.front_axle_load, v.loaded_radius)

@@ -2,9 +2,9 @@
 
 SI throughout: points [m], torque [N*m], force [N], moments [N*m], angles [rad]. Vehicle axes of
 ISO 8855: x forward, y left, z up. Every array argument broadcasts over any leading grid
-dimensions (for instance ``(n_travel, n_torque)``); vectors carry a trailing axis of length 3.
+dimensions (for instance ``(n_travel, n_rack)``); vectors carry a trailing axis of length 3.
 
-Sign conventions (reference notes kinematics_and_torque_steer.md §3.1, ``iso8855_steer_sign``):
+Sign conventions (docs/methods.md §11.1, ``iso8855_steer_sign``):
 
 * The steering axis unit vector k points up (k_z > 0); it is flipped if given pointing down.
 * A moment about k is positive when it tends to steer the wheel **left** (right-hand rule about
@@ -13,25 +13,28 @@ Sign conventions (reference notes kinematics_and_torque_steer.md §3.1, ``iso885
 * Wheel drive torque T > 0 is forward drive. A forward-rolling wheel spins about +y on both sides,
   so the drive torque vector on either hub is T * w, w = sign(b.y) b (b = spindle axis, outboard).
 
-Model (DESIGN.md "Steering-axis moments (steady)"; notes §2.2, §5.0-§5.2), per side:
+Model, per side (derived for this project, docs/methods.md §11.2; ``joint_angle_steering_moment``,
+``cv_joint_bisector_moment``):
 
 (a) tyre drive force F = (T/R) f at the contact patch C, f = unit(w x z) the wheel-plane forward
     direction, perpendicular to the spin axis and to the vertical;
 (b) the outboard CV joint's moment on the hub, M_O = (T_s / cos(beta_o/2)) unit(a_s + b), along
-    the bisector of the shaft axis a_s = unit(O - I) and b, T_s = T sign(b.y) the torque about b
-    (``cv_joint_bisector_moment``);
+    the bisector of the shaft axis a_s = unit(O - I) and b, T_s = T sign(b.y) the torque about b;
 (c) the reaction at O of the halfshaft's transverse force pair: with M_I the inboard joint moment
-    on the shaft, (T_s / cos(beta_i/2)) unit(d + a_s), and Delta = M_O - M_I, the force on the
-    shaft at O is F_O = (Delta x a_s) / L and the force on the hub is -F_O.
+    on the shaft, (T_s / cos(beta_i/2)) unit(d + a_s), the force on the shaft at O is
+    F_O = ((M_O - M_I) x a_s) / L and the force on the hub is -F_O.
 
-M_k = ((r - P) x F) . k for a force F at r, and C . k for a couple C (notes §5.0). The notes write
-T_s = T (y.b), which equals T sign(b.y) when b = +-y; under steer the drive torque about the
-spindle stays T, so this module uses the sign form.
+(b) and (c) are the shaft free body of :func:`shaftcheck.methods.joints.halfshaft_loads`; the
+joint angles are those of :func:`shaftcheck.methods.halfshaft_geometry.joint_geometry`.
+M_k = ((r - P) x F) . k for a force F at r, and C . k for a couple C. Under steer the drive
+torque about the spindle stays T, so T_s = T sign(b.y).
 
 The reported split into a "drive-force" part (tyre force plus the shaft torque T w along the
-spindle; statically equal to F_x acting at the wheel centre, lever r_a, notes §5.1) and a
-"joint-angle" part (the rest: the bisector's tilt and the shaft force pair, notes §5.2) is
-bookkeeping on top of (a)+(b)+(c); the three contributions are also returned as computed.
+spindle; statically equal to F_x acting at the wheel centre, lever r_a, docs/methods.md §11.3,
+``disturbing_force_lever_arm``) and a "joint-angle" part (the rest: the bisector's tilt and the
+shaft force pair) is bookkeeping on top of (a)+(b)+(c); the three contributions are also
+returned as computed. At a fixed pose every moment is linear in T (a test holds it), so a grid
+evaluated at T = 1 N*m scales to any torque.
 """
 
 from __future__ import annotations
@@ -40,68 +43,32 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from shaftcheck.methods.halfshaft_geometry import joint_geometry
+from shaftcheck.methods.joints import halfshaft_loads
+from shaftcheck.methods.vectors import Z_AXIS, dot, rotate, unit_checked
+
 #: Reference keys (shaftcheck.model.references) behind this module's numbers.
 REFERENCE_KEYS = ("iso8855_steer_sign", "cv_joint_bisector_moment", "joint_angle_steering_moment",
                   "disturbing_force_lever_arm", "rack_force_virtual_work")
 
-_Z = np.array([0.0, 0.0, 1.0])
-
-
-def _unit(v: np.ndarray) -> np.ndarray:
-    v = np.asarray(v, dtype=float)
-    n = np.linalg.norm(v, axis=-1, keepdims=True)
-    if np.any(n == 0.0):
-        raise ValueError("zero-length direction vector")
-    return v / n
-
-
-def _dot(a: np.ndarray, b: np.ndarray) -> np.ndarray:
-    return np.sum(a * b, axis=-1)
-
 
 def _axis_up(k: np.ndarray) -> np.ndarray:
-    k = _unit(k)
+    k = unit_checked(k)
     return np.where((k[..., 2] < 0.0)[..., None], -k, k)
 
 
 def _spin_axis(b: np.ndarray) -> np.ndarray:
     """Forward-rolling spin direction w = sign(b.y) b [-] (ISO: +y on both sides)."""
-    b = _unit(b)
+    b = unit_checked(b)
     s = np.sign(b[..., 1])
     if np.any(s == 0.0):
         raise ValueError("spindle axis perpendicular to y: side of the car is undefined")
     return s[..., None] * b
 
 
-def cv_joint_moment(torque, a, b) -> np.ndarray:
-    """Moment an ideal CV joint passes from member a to member b [N*m], shape (..., 3).
-
-    M = T / cos(beta/2) * (a + b)/|a + b|, beta = arccos(a.b); T = M.a = M.b is the shaft torque
-    (reference notes §2.2 [DER], ``cv_joint_bisector_moment``). Secondary couple on each shaft is
-    T tan(beta/2), in the plane of the two shafts.
-
-    torque [N*m] signed torque about the members' common sense; a, b [-] unit axes along the
-    power flow, (..., 3).
-    """
-    a, b = _unit(a), _unit(b)
-    s = a + b
-    ns = np.linalg.norm(s, axis=-1, keepdims=True)
-    # |a + b| = 2 cos(beta/2), so T/cos(beta/2) * s/|s| = 2 T s / |s|^2.
-    return 2.0 * np.asarray(torque, dtype=float)[..., None] * s / ns**2
-
-
 def forward_direction(b) -> np.ndarray:
     """Wheel-plane forward direction f = unit(w x z) [-], w = sign(b.y) b (module docstring)."""
-    return _unit(np.cross(_spin_axis(b), _Z))
-
-
-def joint_angles(inboard, output_axis, outboard, spindle):
-    """(beta_inboard, beta_outboard, length) [rad, rad, m] of a halfshaft (notes §3.2 [DER])."""
-    a_s = _unit(np.asarray(outboard, float) - np.asarray(inboard, float))
-    length = np.linalg.norm(np.asarray(outboard, float) - np.asarray(inboard, float), axis=-1)
-    bi = np.arccos(np.clip(_dot(_unit(output_axis), a_s), -1.0, 1.0))
-    bo = np.arccos(np.clip(_dot(a_s, _unit(spindle)), -1.0, 1.0))
-    return bi, bo, length
+    return unit_checked(np.cross(_spin_axis(b), Z_AXIS))
 
 
 @dataclass(frozen=True)
@@ -130,13 +97,13 @@ def steering_axis_moments(inboard, output_axis, outboard, spindle, contact, axis
                           torque, radius) -> AxisMoments:
     """Moments of one driven wheel-and-upright assembly about its steering axis [N*m].
 
-    Model (a)+(b)+(c) of the module docstring (DESIGN.md; reference notes §2.2, §5.0-§5.2 [DER];
-    ``iso8855_steer_sign``, ``cv_joint_bisector_moment``, ``joint_angle_steering_moment``).
+    Model (a)+(b)+(c) of the module docstring (``iso8855_steer_sign``,
+    ``cv_joint_bisector_moment``, ``joint_angle_steering_moment``).
 
-    inboard I [m], output_axis d [-] (unit, towards the wheel), outboard O [m], spindle b [-]
-    (unit, outboard), contact C [m], axis_point P [m], axis k [-] (unit, made to point up): all
-    (..., 3). torque T [N*m] wheel drive torque, forward positive; radius R [m] loaded radius.
-    Everything broadcasts together.
+    inboard I [m], output_axis d [-] (towards the wheel), outboard O [m], spindle b [-]
+    (outboard), contact C [m], axis_point P [m], axis k [-] (made to point up): all (..., 3);
+    directions are normalised here. torque T [N*m] wheel drive torque, forward positive; radius
+    R [m] loaded radius. Everything broadcasts together.
 
     >>> import numpy as np
     >>> m = steering_axis_moments([0, .2, .29], [0, 1, 0], [0, .66, .29], [0, 1, 0],
@@ -146,26 +113,23 @@ def steering_axis_moments(inboard, output_axis, outboard, spindle, contact, axis
     """
     I, O = np.asarray(inboard, float), np.asarray(outboard, float)
     C, P = np.asarray(contact, float), np.asarray(axis_point, float)
-    d, b, k = _unit(output_axis), _unit(spindle), _axis_up(axis)
+    d, b, k = unit_checked(output_axis), unit_checked(spindle), _axis_up(axis)
     T = np.asarray(torque, dtype=float)
     w = _spin_axis(b)
     ts = T * np.sign(b[..., 1])
     # (a) tyre drive force at the contact patch
     f_tyre = (T / np.asarray(radius, float))[..., None] * forward_direction(b)
-    m_tyre = _dot(np.cross(C - P, f_tyre), k)
-    # (b) outboard joint moment on the hub, along the bisector of a_s and b
-    a_s = _unit(O - I)
-    length = np.linalg.norm(O - I, axis=-1)
-    m_o = cv_joint_moment(ts, a_s, b)
-    m_joint = _dot(m_o, k)
-    # (c) transverse force pair: F_O on the shaft at O, -F_O on the hub
-    m_i = cv_joint_moment(ts, d, a_s)
-    f_o = np.cross(m_o - m_i, a_s) / length[..., None]
-    m_force = _dot(np.cross(O - P, -f_o), k)
+    m_tyre = dot(np.cross(C - P, f_tyre), k)
+    # (b) outboard joint moment on the hub and (c) the shaft's force pair: F_O on the shaft at
+    # O, -F_O on the hub (one shaft free body, methods.joints)
+    loads = halfshaft_loads(ts, d, I, O, b)
+    m_joint = dot(loads.outboard_moment, k)
+    m_force = dot(np.cross(O - P, -loads.force_at_outboard), k)
     total = m_tyre + m_joint + m_force
-    drive = m_tyre + T * _dot(w, k)
-    bi, bo, _ = joint_angles(I, d, O, b)
-    return AxisMoments(m_tyre, m_joint, m_force, total, drive, total - drive, bi, bo, length)
+    drive = m_tyre + T * dot(w, k)
+    geo = joint_geometry(I, d, O, b)
+    return AxisMoments(m_tyre, m_joint, m_force, total, drive, total - drive, geo.inboard_angle,
+                       geo.outboard_angle, geo.length)
 
 
 def naive_projection_moments(inboard, outboard, spindle, contact, axis_point, axis, torque,
@@ -173,52 +137,54 @@ def naive_projection_moments(inboard, outboard, spindle, contact, axis_point, ax
     """COMPARISON ONLY: tyre force plus the shaft torque projected on k, T_s (a_s . k) [N*m]
     (``joint_angle_steering_moment``).
 
-    The popular simplification the notes reject (§5.2 [DER]): it ignores the bending moment the
-    shaft carries and roughly doubles the joint-angle effect. shaftcheck uses
+    A popular simplification this project rejects: it ignores the bending moment the shaft
+    carries and roughly doubles the joint-angle effect. shaftcheck uses
     :func:`steering_axis_moments`. Arguments as there.
     """
     I, O = np.asarray(inboard, float), np.asarray(outboard, float)
     C, P = np.asarray(contact, float), np.asarray(axis_point, float)
-    b, k = _unit(spindle), _axis_up(axis)
+    b, k = unit_checked(spindle), _axis_up(axis)
     T = np.asarray(torque, dtype=float)
     f_tyre = (T / np.asarray(radius, float))[..., None] * forward_direction(b)
-    m_tyre = _dot(np.cross(C - P, f_tyre), k)
-    return m_tyre + T * np.sign(b[..., 1]) * _dot(_unit(O - I), k)
+    m_tyre = dot(np.cross(C - P, f_tyre), k)
+    return m_tyre + T * np.sign(b[..., 1]) * dot(unit_checked(O - I), k)
 
 
 def disturbing_lever_arm(kingpin_inclination, scrub_radius, radius) -> np.ndarray:
     """r_a = (r_s + R tan sigma) cos sigma = r_s cos sigma + R sin sigma [m], caster neglected.
 
     kingpin_inclination sigma [rad]; scrub_radius r_s [m] (positive: axis meets the ground inboard
-    of the contact patch); radius R [m]. Reimpell, The Automotive Chassis 2nd ed. (2001)
-    "disturbing force lever arm" [M]; re-derived in the reference notes §5.1 [DER]
-    (``disturbing_force_lever_arm``). Drive-force moment per wheel = F_x r_a.
+    of the contact patch); radius R [m]. J. Reimpell, H. Stoll & J. W. Betzler, The Automotive
+    Chassis, 2nd ed. (2001), "disturbing force lever arm" (from memory); re-derived for this
+    project with the vector model (``disturbing_force_lever_arm``). Drive-force moment per wheel =
+    F_x r_a.
     """
     s = np.asarray(kingpin_inclination, float)
     return np.asarray(scrub_radius, float) * np.cos(s) + np.asarray(radius, float) * np.sin(s)
 
 
-# ---- rack and steering wheel (notes §5.5 [DER]) -------------------------------------------------
+# ---- rack and steering wheel (virtual work, docs/methods.md §11.4) ----------------------------
 
 
 def tie_rod_lever(tie_rod_inner, tie_rod_outer, axis_point, axis) -> np.ndarray:
     """Signed lever l = ((X_out - P) x u) . k [m] of the tie rod about the steering axis.
 
     u = unit(X_out - X_in), the tie rod pointing outboard. A force F u on the knuckle at X_out
-    (F > 0 pushes outward) gives the moment F l about k (notes §5.0, §5.5 [DER]).
+    (F > 0 pushes outward) gives the moment F l about k (``rack_force_virtual_work``).
     """
     x_in, x_out = np.asarray(tie_rod_inner, float), np.asarray(tie_rod_outer, float)
-    u = _unit(x_out - x_in)
-    return _dot(np.cross(x_out - np.asarray(axis_point, float), u), _axis_up(axis))
+    u = unit_checked(x_out - x_in)
+    return dot(np.cross(x_out - np.asarray(axis_point, float), u), _axis_up(axis))
 
 
 def rack_gains(tie_rod_inner, tie_rod_outer, axis_point, axis) -> np.ndarray:
     """Wheel steer per rack travel along +y, d(delta)/d(y_rack) = (u . y) / l [rad/m].
 
     Keeping the tie-rod length, a rack move dy turns the knuckle by (u.y) dy / l (virtual work,
-    notes §5.5 [DER]). The force the tie rods put on the rack along +y is sum M_i (u_i.y) / l_i.
+    ``rack_force_virtual_work``). The force the tie rods put on the rack along +y is
+    sum M_i (u_i.y) / l_i.
     """
-    u = _unit(np.asarray(tie_rod_outer, float) - np.asarray(tie_rod_inner, float))
+    u = unit_checked(np.asarray(tie_rod_outer, float) - np.asarray(tie_rod_inner, float))
     return u[..., 1] / tie_rod_lever(tie_rod_inner, tie_rod_outer, axis_point, axis)
 
 
@@ -245,7 +211,7 @@ def rack_and_steering_wheel(moment_left, moment_right, gain_left, gain_right,
     from :func:`rack_gains`; rack_travel_per_rev c [m]. Force on the rack along +y:
     F_y = sum M_i g_i. The rack's steer-left direction is sign(g_L + g_R) (the way the rack moves
     to steer left), so rack_force = |F| in that sense = sign(g_L + g_R) F_y and
-    T_sw = rack_force c / (2 pi) (notes §5.5 [DER], ``rack_force_virtual_work``).
+    T_sw = rack_force c / (2 pi) (virtual work, ``rack_force_virtual_work``).
     """
     gl, gr = np.asarray(gain_left, float), np.asarray(gain_right, float)
     f_y = np.asarray(moment_left, float) * gl + np.asarray(moment_right, float) * gr
@@ -258,7 +224,8 @@ def rack_and_steering_wheel(moment_left, moment_right, gain_left, gain_right,
 
 def steering_wheel_gains(gain_left, gain_right, rack_travel_per_rev):
     """(s_L, s_R) [N*m per N*m]: T_sw = s_L M_L + s_R M_R, the same sign and value as
-    :func:`rack_and_steering_wheel`; s_i = sign(g_L + g_R) g_i c / (2 pi) (notes §5.5 [DER])."""
+    :func:`rack_and_steering_wheel`; s_i = sign(g_L + g_R) g_i c / (2 pi)
+    (``rack_force_virtual_work``)."""
     gl, gr = np.asarray(gain_left, float), np.asarray(gain_right, float)
     f = np.sign(gl + gr) * np.asarray(rack_travel_per_rev, float) / (2.0 * np.pi)
     return gl * f, gr * f
@@ -268,14 +235,15 @@ def rack_force_from_levers(moment_left, moment_right, lever_left, lever_right) -
     """Scalar-lever form F_rack = M_L / l_L + M_R / l_R [N], steer-left positive.
 
     lever_left/right l_i [m] are the effective steering-arm lengths as positive magnitudes
-    (notes §5.5 [DER]).
+    (``rack_force_virtual_work``).
     """
     return (np.asarray(moment_left, float) / np.asarray(lever_left, float)
             + np.asarray(moment_right, float) / np.asarray(lever_right, float))
 
 
 def steering_wheel_torque(rack_force, rack_travel_per_rev) -> np.ndarray:
-    """T_sw = F_rack c / (2 pi) [N*m]; rack_force [N], rack_travel_per_rev c [m/rev] (§5.5)."""
+    """T_sw = F_rack c / (2 pi) [N*m]; rack_force [N], rack_travel_per_rev c [m/rev] (virtual
+    work: one turn of the wheel moves the rack by c; ``rack_force_virtual_work``)."""
     return np.asarray(rack_force, float) * np.asarray(rack_travel_per_rev, float) / (2.0 * np.pi)
 
 
@@ -296,30 +264,21 @@ class SteerLevers:
 
 
 def linearise_levers(moments_at_unit_torque: AxisMoments, radius: float) -> SteerLevers:
-    """Levers of one side from :func:`steering_axis_moments` evaluated at T = 1 N*m.
+    """Levers of one side from :func:`steering_axis_moments` evaluated at T = 1 N*m at one pose
+    (arrays of size 1 of any shape are accepted).
 
     The steady model is linear in T at a fixed pose, so the drive-force part per unit T times R
     is the lever per unit F_x. In a transient the wheel's inertia torque -I_w dw/dt (along w)
     joins the assembly's moments; with I_w dw/dt = T - R F_x it turns the hub torque T w.k into
     R F_x w.k, so M = (drive part per T) R F_x + (joint-angle part per T) T holds at every instant
-    (d'Alembert; notes §5.1, §5.4 [DER]).
+    (d'Alembert; ``disturbing_force_lever_arm``, ``two_side_torsional_model``).
     """
     m = moments_at_unit_torque
-    return SteerLevers(float(m.drive_force) * float(radius), float(m.joint_angle))
+    return SteerLevers(float(np.squeeze(m.drive_force)) * float(radius),
+                       float(np.squeeze(m.joint_angle)))
 
 
-# ---- powertrain roll on its mounts, and misalignment (notes §4.1, §5.3 [DER]) ------------------
-
-
-def rotate_about_axis(vectors, axis, angle) -> np.ndarray:
-    """Rodrigues rotation of free vectors by angle [rad] about the unit axis [-], (..., 3).
-
-    v' = v cos(a) + (e x v) sin(a) + e (e . v)(1 - cos(a)) (Rodrigues' formula; any rigid-body
-    kinematics text, e.g. Goldstein, Classical Mechanics 3rd ed. (2002) §4.9 [M]).
-    """
-    v, e = np.asarray(vectors, float), _unit(axis)
-    a = np.asarray(angle, float)[..., None]
-    return v * np.cos(a) + np.cross(e, v) * np.sin(a) + e * _dot(e, v)[..., None] * (1 - np.cos(a))
+# ---- powertrain roll on its mounts, and misalignment (derived for this project) ---------------
 
 
 def rotate_powertrain(inboard, output_axis, point, axis, angle):
@@ -327,11 +286,11 @@ def rotate_powertrain(inboard, output_axis, point, axis, angle):
 
     inboard I [m], output_axis d [-], (..., 3); point Q [m] and unit axis e [-] of the rotation;
     angle [rad] (right-hand about e). Returns (I', d') with I' = Q + Rot(e, a)(I - Q),
-    d' = Rot(e, a) d (notes §3.2 motion model B [DER]).
+    d' = Rot(e, a) d (Rodrigues, :func:`shaftcheck.methods.vectors.rotate`).
     """
-    q = np.asarray(point, float)
-    moved = q + rotate_about_axis(np.asarray(inboard, float) - q, axis, angle)
-    return moved, rotate_about_axis(output_axis, axis, angle)
+    q, e = np.asarray(point, float), unit_checked(axis)
+    moved = q + rotate(np.asarray(inboard, float) - q, e, angle)
+    return moved, rotate(output_axis, e, angle)
 
 
 def misalign_powertrain(inboard, output_axis, point, rotation_vector):
@@ -349,11 +308,11 @@ def powertrain_reaction(torque_left, torque_right, output_axis_left, output_axis
     Each output passes the shaft torque T_i along its own axis, T_i sign(d_i.y) d_i (both point
     along +y in forward drive); the powertrain, a free body held by its mounts, takes the
     reaction -sum T_i sign(d_i.y) d_i (transverse-force pairs and secondary couples neglected;
-    notes §2.2, §3.1 [DER]). torque_left/right [N*m] forward positive; axes [-] (..., 3).
+    derived for this project). torque_left/right [N*m] forward positive; axes [-] (..., 3).
     """
     out = []
     for t, d in ((torque_left, output_axis_left), (torque_right, output_axis_right)):
-        d = _unit(d)
+        d = unit_checked(d)
         out.append(np.asarray(t, float)[..., None] * np.sign(d[..., 1])[..., None] * d)
     return -(out[0] + out[1])
 
@@ -363,11 +322,12 @@ def powertrain_roll_angle(reaction, roll_axis, roll_stiffness) -> np.ndarray:
 
     Only the reaction's component along the roll axis e turns the powertrain (the mounts are taken
     as rigid against the other rotations); linear mount stiffness k_roll [N*m/rad] about e
-    (common practice, no source [P]). reaction [N*m] (..., 3) from :func:`powertrain_reaction`.
+    (common practice, no source). reaction [N*m] (..., 3) from :func:`powertrain_reaction`.
     """
     if np.any(np.asarray(roll_stiffness, float) <= 0.0):
         raise ValueError("roll stiffness must be positive")
-    return _dot(np.asarray(reaction, float), _unit(roll_axis)) / np.asarray(roll_stiffness, float)
+    return dot(np.asarray(reaction, float), unit_checked(roll_axis)) / np.asarray(roll_stiffness,
+                                                                                 float)
 
 
 @dataclass(frozen=True)

@@ -1,9 +1,9 @@
 """Transient torque steer: the two halfshafts as torsion springs between differential and wheels.
 
 SI throughout: stiffness [N*m/rad], damping [N*m*s/rad], inertia [kg*m^2], torque [N*m], force [N],
-time [s]. Model of the reference notes kinematics_and_torque_steer.md §5.4 [DER] (structure
-standard drivetrain practice [P]; tyre relaxation after Pacejka, Tire and Vehicle Dynamics [M]),
-``notes_ts_transient``:
+time [s]. Lumped model derived for this project (docs/methods.md §13,
+``two_side_torsional_model``; structure standard drivetrain practice, no source; tyre relaxation
+after H. B. Pacejka, Tire and Vehicle Dynamics, 3rd ed., from memory):
 
 * shaft i: T_i = k_i (theta_s,i - theta_w,i) + c_i (omega_s,i - omega_w,i);
 * wheel: I_w domega_w,i/dt = T_i - R F_x,i;
@@ -12,14 +12,18 @@ standard drivetrain practice [P]; tyre relaxation after Pacejka, Tire and Vehicl
 * vehicle: m dv/dt = F_x,L + F_x,R;
 * differential, carrier speed omega_c = mean side-gear speed, psi = half the side-gear angle
   difference: (J_c + 2 J_s) domega_c/dt = T_in - T_L - T_R; 2 J_s d2psi/dt2 = T_R - T_L + 2 T_f.
-  open: T_f = 0 (equal side-gear torque; the notes' J_s theta_s'' = tau - T_i, J_c theta_c'' =
+  open: T_f = 0 (equal side-gear torque; J_s theta_s'' = tau - T_i, J_c theta_c'' =
   T_in - 2 tau with tau eliminated); locked: psi = 0; limited_slip: friction torque between the
   side gears T_f = -T_f,max tanh(psi'/omega_eps), T_f,max = (TBR - 1)/(TBR + 1) |T_L + T_R| / 2
-  + preload, so a slipping LSD holds T_high / T_low = TBR (notes §5.3 [DER]); the tanh makes the
-  stick-slip smooth (a stiff term: an implicit solver is used).
+  + preload, so a slipping LSD holds T_high / T_low = TBR (``split_mu_bias``); the tanh makes
+  the stick-slip smooth (a stiff term: an implicit solver is used).
 
 With an ideal open differential unequal stiffness barely changes the wheel torques; a difference
-needs differential friction, a limited-slip or a locked differential (notes §5.4 [DER]).
+needs differential friction, a limited-slip or a locked differential.
+
+The model's physical parameters have no defaults here: a study takes them from the design and
+from the sourced table :mod:`shaftcheck.model.defaults`. The two-rotor natural frequency of one
+side is :func:`shaftcheck.methods.whirl.torsional_natural_frequency`.
 """
 
 from __future__ import annotations
@@ -46,21 +50,23 @@ class DrivelineModel:
     [kg*m^2] per wheel; radius R [m]; slip_stiffness C_x [N per unit slip]; vehicle_mass m [kg];
     initial_speed v0 [m/s]; carrier_inertia J_c and side_gear_inertia J_s [kg*m^2];
     differential "open" | "limited_slip" | "locked"; torque_bias_ratio [-] (limited_slip);
-    lsd_preload [N*m]; relaxation_length sigma_x [m] (0 = no lag); min_speed v_min [m/s];
-    lsd_slip_speed omega_eps [rad/s]; wheels_held: wheels fixed (static split checks).
+    lsd_preload [N*m]; relaxation_length sigma_x [m] (0 = no lag); wheels_held: wheels fixed
+    (static split checks). Numerical regularisation (project choices, no source): min_speed
+    v_min [m/s] bounds the slip denominator at standstill; lsd_slip_speed omega_eps [rad/s] is the
+    width of the smoothed stick-slip of the limited-slip clutch.
     """
 
     stiffness_left: float
     stiffness_right: float
-    damping_left: float = 2.0
-    damping_right: float = 2.0
-    wheel_inertia: float = 1.0
-    radius: float = 0.29
-    slip_stiffness: float = 80.0e3
-    vehicle_mass: float = 1300.0
-    initial_speed: float = 10.0
-    carrier_inertia: float = 25.0
-    side_gear_inertia: float = 0.01
+    damping_left: float
+    damping_right: float
+    wheel_inertia: float
+    radius: float
+    slip_stiffness: float
+    vehicle_mass: float
+    initial_speed: float
+    carrier_inertia: float
+    side_gear_inertia: float
     differential: str = "open"
     torque_bias_ratio: float = 1.0
     lsd_preload: float = 0.0
@@ -244,16 +250,3 @@ def simulate(model: DrivelineModel, input_torque, t_end: float = 0.5, n_out: int
         m_r = levers[1].force_lever * f_r + levers[1].torque_gain * t_r
     t_sw = steering_gains[0] * m_l + steering_gains[1] * m_r
     return TransientResult(sol.t, t_l, t_r, f_l, f_r, m_l, m_r, t_sw, model.differential)
-
-
-def side_natural_frequency(stiffness, wheel_inertia, side_inertia=np.inf) -> np.ndarray:
-    """Undamped torsional natural frequency of one side, tyre force removed [rad/s].
-
-    Two inertias on a spring: omega = sqrt(k (1/J_w + 1/J_s)); with the side gear held
-    (J_s -> inf) omega = sqrt(k / J_w) (any vibration text, e.g. Thomson & Dahleh, Theory of
-    Vibration with Applications 5th ed., two-rotor torsional system [M]).
-    stiffness k [N*m/rad]; wheel_inertia J_w, side_inertia J_s [kg*m^2].
-    """
-    k = np.asarray(stiffness, float)
-    return np.sqrt(k * (1.0 / np.asarray(wheel_inertia, float)
-                        + 1.0 / np.asarray(side_inertia, float)))

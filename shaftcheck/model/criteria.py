@@ -21,6 +21,13 @@ critical_speed_margin_min          1.3       driveline practice: max speed <= 0.
 miner_damage_max                   1.0       Miner's rule, failure at D = 1 (Shigley §6-17)
 steering_wheel_torque_max_nm       5.0       common practice, not a published limit; the model
                                              has no friction and no power assistance
+steering_wheel_torque_lock_max_nm  5.0       the same basis as steering_wheel_torque_max_nm
+                                             (common practice, no source), applied over the
+                                             rack range at design travel
+steering_wheel_torque_split_mu_    5.0       the same basis as steering_wheel_torque_max_nm
+max_nm                                       (common practice, no source), applied to the
+                                             split-friction launch (limited-slip or locked
+                                             differential only)
 mean_stress_criterion              goodman   Shigley: modified Goodman (gerber, asme_elliptic)
 reliability_pct                    99.0      common practice for safety parts, no source
 length_fit_tolerance_mm            60.0      common practice, no source: allowed difference
@@ -48,6 +55,8 @@ class Criteria:
     critical_speed_margin_min: float = 1.3
     miner_damage_max: float = 1.0
     steering_wheel_torque_max_nm: float = 5.0
+    steering_wheel_torque_lock_max_nm: float = 5.0
+    steering_wheel_torque_split_mu_max_nm: float = 5.0
     mean_stress_criterion: str = "goodman"
     reliability_pct: float = 99.0
     length_fit_tolerance_mm: float = 60.0

@@ -151,31 +151,83 @@ def print_sweep(data: dict) -> None:
             console.print(t)
 
 
-def print_pull(res: dict) -> None:
-    d = res["design_point"]
-    t = Table(title="steering-axis moment budget at design torque and design position (N*m, "
-              "positive steers left)", title_justify="left")
-    for col in ("mechanism", "left", "right", "net"):
-        t.add_column(col, justify="right" if col != "mechanism" else "left")
-    for m in d["mechanisms"]:
-        t.add_row(m["name"], fmt(m["left_nm"]), fmt(m["right_nm"]), fmt(m["net_nm"]))
-    console.print(t)
-    console.print(f"steering-wheel torque at design: {d['steering_wheel_torque_nm']:+.3f} N*m "
-                  f"(rack force {d['rack_force_n']:+.1f} N)")
-    t = Table(title="worst cases", title_justify="left")
-    for col in ("condition", "steering-wheel torque N*m", "where", "dominant mechanism"):
-        t.add_column(col)
-    for w in res["worst_cases"]:
-        t.add_row(w["condition"], f"{w['steering_wheel_torque_nm']:+.3f}", w["where"],
-                  w["dominant_mechanism"])
-    console.print(t)
-    tr = res.get("transient")
-    if tr:
-        console.print(f"transient ({tr['differential']} differential): peak wheel-torque "
-                      f"difference {tr['peak_torque_difference_nm']:.2f} N*m at "
-                      f"{tr['peak_torque_difference_time_s'] * 1e3:.0f} ms; peak steering-wheel "
-                      f"torque {tr['peak_steering_wheel_torque_nm']:+.3f} N*m")
-        console.print(tr["statement"])
+def _signed(x: float, decimals: int) -> str:
+    """A signed number with fixed decimals; a value that rounds to zero prints as 0 (never as
+    -0.000 or as numerical noise such as 8e-09)."""
+    r = round(float(x), decimals)
+    if r == 0.0:
+        return f"{0.0:.{decimals}f}"
+    return f"{r:+.{decimals}f}"
+
+
+def print_torque_steer(ts, transient=None, checks=()) -> None:
+    """The torque-steer study (a TorqueSteerResult, SI) in trade units, at most 80 columns:
+    budget by mechanism, worst cases, split friction, transient and the study's checks."""
+    import textwrap
+
+    def line(text: str = "") -> None:
+        console.print(text, markup=False, highlight=False, soft_wrap=True)
+
+    def row(label, values, decimals=1, width=36):
+        cells = "".join(f"{_signed(v, d):>9}" for v, d in zip(values, decimals, strict=True))
+        line(f"  {label:<{width}}{cells}")
+
+    for text in textwrap.wrap(
+            f"Torque steer at the design torque {ts.design_torque:.0f} N*m per side. Moments "
+            "about the steering axes in N*m, positive steers left; \"wheel\" is the "
+            "steering-wheel torque, the pull felt at the wheel, positive to the left (no "
+            "friction, no assistance).", 78):
+        line(text)
+    line()
+    line(f"  {'budget at the design position':<36}{'left':>9}{'right':>9}{'net':>9}"
+         f"{'wheel':>9}")
+    for m in (*ts.mechanisms, ts.all_mechanisms):
+        label = "all mechanisms" if m.key == "all" else m.short_label
+        row(label, (m.left, m.right, m.net, m.steering_wheel), (1, 1, 1, 3))
+    row("ideal joints, rigid mounts (headline)", (ts.left.total, ts.right.total,
+                                                  ts.left.total + ts.right.total,
+                                                  ts.steering_wheel_torque), (1, 1, 1, 3))
+    mounts = next((m for m in ts.mechanisms if m.roll_angle is not None), None)
+    if mounts is not None:
+        line(f"  powertrain roll angle on its mounts at design: "
+             f"{_signed(math.degrees(mounts.roll_angle), 3)} deg")
+    line(f"  rack force at design (headline): {_signed(ts.rack_force, 1)} N")
+    line()
+    line(f"  {'worst case at design torque':<30}{'wheel N*m':>10}  {'where':<22}dominant")
+    for w in ts.worst_cases:
+        if round(w.steering_wheel_torque, 3) == 0.0:
+            line(f"  {w.condition:<30}{_signed(0.0, 3):>10}  below 0.0005 N*m everywhere")
+            continue
+        line(f"  {w.condition:<30}{_signed(w.steering_wheel_torque, 3):>10}  {w.where:<22}"
+             f"{w.short_dominant}")
+    sm = ts.split_mu
+    if sm is not None:
+        tbr = "locked" if math.isinf(sm.torque_bias_ratio) else f"TBR {sm.torque_bias_ratio:g}"
+        line()
+        line(f"  split friction (mu {sm.mu_low:g} / {sm.mu_high:g}, {tbr}), design position:")
+        for c in sm.cases:
+            line(f"    low friction {c.low_side:<5}: wheel torques {c.torque_left:.0f} / "
+                 f"{c.torque_right:.0f} N*m, steering wheel "
+                 f"{_signed(c.steering_wheel_torque, 3)} N*m")
+    if transient is not None:
+        tr = transient
+        diff, t_diff = tr.peak(tr.torque_difference)
+        sw, t_sw = tr.peak(tr.steering_wheel_torque)
+        line()
+        line(f"  transient ({tr.differential} differential, {tr.end_time * 1e3:.0f} ms after "
+             f"a {tr.carrier_torque:.0f} N*m step at the carrier):")
+        line(f"    peak wheel-torque difference {abs(diff):.2f} N*m at {t_diff * 1e3:.0f} ms; "
+             f"peak steering-wheel")
+        line(f"    torque {_signed(sw, 3)} N*m at {t_sw * 1e3:.0f} ms")
+        for text in textwrap.wrap(tr.statement, 76):
+            line(f"    {text}")
+    if checks:
+        line()
+        for c in checks:
+            verdict = "met" if c.passed else "NOT MET"
+            line(f"  {c.id:<32}{c.value:>8.3f} <= {c.limit:g} {c.unit:<5} {verdict}")
+            for text in textwrap.wrap(c.location, 72):
+                line(f"      {text}")
     console.print(CAUTION_LINE, style="yellow")
 
 

@@ -1,6 +1,13 @@
-"""Section 5: torque steer - moment budget by mechanism, pull over travel and roll, transient."""
+"""Section 5: torque steer - budget by mechanism, steering-wheel torque over heave, roll, steer and
+throttle, the three checks, split friction and the transient after a throttle step.
+
+Renders only from ``result.torque_steer`` (a TorqueSteerResult, SI), ``result.transient`` (None
+unless asked for) and the checks of the result; trade units are produced here.
+"""
 
 from __future__ import annotations
+
+import math
 
 from reportlab.platypus import KeepTogether
 
@@ -9,121 +16,205 @@ from shaftcheck.report.blocks import caption, gap, intro, para, section, sub, te
 from shaftcheck.report.charts import DOTTED, Series, line_chart
 from shaftcheck.report.tables import data_table, side_by_side
 
+#: steering-wheel torque below this [N*m] is numerical noise, not data (prints as 0; a chart
+#: whose whole range is below it is replaced by a sentence)
+RESOLUTION_NM = 1e-3
+#: check id of each condition's limit
+_CHECK_OF = {"heave": "steering_wheel_torque", "roll": "steering_wheel_torque",
+             "steer": "steering_wheel_torque_lock"}
 
-def _xy(x: list, y: list) -> list:
-    return list(zip(x, y, strict=True))
+
+def _nm(x: float, decimals: int = 1) -> str:
+    """A moment or torque with fixed decimals; noise below the resolution prints as 0."""
+    if x is None or not math.isfinite(x):
+        return "-"
+    if abs(x) < RESOLUTION_NM or round(x, decimals) == 0:
+        return st.fixed(0.0, decimals)
+    return st.fixed(x, decimals)
 
 
-def _budget(ts: dict) -> list:
-    dp = ts.get("design_point", {})
-    rows = []
-    for m in dp.get("mechanisms", []):
-        rows.append([st.esc(m["name"]), st.fixed(m["left_nm"], 1), st.fixed(m["right_nm"], 1),
-                     st.fixed(m["net_nm"], 1), st.fixed(m["steering_wheel_nm"], 2)])
-    left, right = ts["left"]["steering_axis_moment_nm"], ts["right"]["steering_axis_moment_nm"]
-    rows.append(["ideal CV joints, rigid mounts (drive force + joint angles)",
-                 st.fixed(left, 1), st.fixed(right, 1), st.fixed(left + right, 1),
-                 st.fixed(dp.get("steering_wheel_torque_nm"), 2)])
-    tot = dp.get("all_mechanisms", {})
-    rows.append(["<b>all mechanisms</b>", st.fixed(tot.get("left_nm"), 1),
-                 st.fixed(tot.get("right_nm"), 1), st.fixed(tot.get("net_nm"), 1),
-                 f"<b>{st.fixed(tot.get('steering_wheel_nm'), 2)}</b>"])
+def _xy(x, y) -> list:
+    return [(float(a), float(b)) for a, b in zip(x, y, strict=True)]
+
+
+def _budget(ts) -> list:
+    rows = [[st.esc(m.label), _nm(m.left), _nm(m.right), _nm(m.net), _nm(m.steering_wheel, 3)]
+            for m in ts.mechanisms]
+    rows.append(["ideal CV joints, rigid mounts (drive force + joint angles): the headline",
+                 _nm(ts.left.total), _nm(ts.right.total), _nm(ts.left.total + ts.right.total),
+                 _nm(ts.steering_wheel_torque, 3)])
+    tot = ts.all_mechanisms
+    rows.append(["<b>all mechanisms</b>", _nm(tot.left), _nm(tot.right), _nm(tot.net),
+                 f"<b>{_nm(tot.steering_wheel, 3)}</b>"])
+    mounts = next((m for m in ts.mechanisms if m.roll_angle is not None), None)
+    roll = (f" The powertrain rolls {st.fixed(mounts.roll_angle * st.DEG, 3)} deg on its mounts."
+            if mounts is not None else "")
     return [data_table(["Mechanism", "Left axis [N*m]", "Right axis [N*m]", "Net [N*m]",
                         "Steering wheel [N*m]"], rows, [74, 24, 24, 22, 26],
                        right=(1, 2, 3, 4), total_rows=(len(rows) - 1,)),
-            caption(f"At the design position and the design torque "
-                    f"{ts.get('design_torque_nm', 0):.0f} N*m per side; rack force "
-                    f"{st.sig(dp.get('rack_force_n'))} N. Convention: {ts.get('convention', '')}.")]
+            caption(f"At the design position and the design torque {ts.design_torque:.0f} N*m "
+                    f"per side; rack force {_nm(ts.rack_force, 1)} N (headline model).{roll} "
+                    f"Convention: {ts.convention}.")]
 
 
-def _pull_charts(ts: dict, limit: float) -> list:
-    charts = []
-    for key, xkey, xlabel, title in (
-            ("heave", "travel_mm", "wheel travel, both wheels [mm]", "Pull over heave travel"),
-            ("roll", "roll_mm", "roll travel, left wheel up [mm]", "Pull over roll travel")):
-        d = ts.get(key)
-        if not d:
+def _limit_series(x, limit: float) -> list:
+    return [Series(f"+/- {limit:g} N*m limit", [(x[0], limit), (x[-1], limit)], st.FAIL,
+                   dash=DOTTED, width=0.9),
+            Series("", [(x[0], -limit), (x[-1], -limit)], st.FAIL, dash=DOTTED, width=0.9)]
+
+
+def _curve_chart(curve, limit: float, xlabel: str, title: str):
+    x = [float(v) * st.MM for v in curve.x]
+    series = [Series("steering-wheel torque", _xy(x, curve.steering_wheel_torque), st.TEAL),
+              *_limit_series(x, limit)]
+    return line_chart(series, width_mm=84, height_mm=48, xlabel=xlabel,
+                      ylabel="steering-wheel torque [N*m]", title=title, xrange=(x[0], x[-1]))
+
+
+def _map_chart(ts, limit: float):
+    """Steering-wheel torque over heave at a few drive-torque levels of the throttle map."""
+    m = ts.throttle_map
+    x = [float(v) * st.MM for v in m.travel]
+    n = len(m.drive_torque)
+    levels = sorted({n - 1, (3 * (n - 1)) // 4, (n - 1) // 2, (n - 1) // 4} - {0})
+    colours = (st.SKY, st.OLIVE, st.PLUM, st.TEAL)
+    series = [Series(f"{m.drive_torque[i]:.0f} N*m", _xy(x, m.heave_steering_wheel_torque[i]),
+                     colours[k % len(colours)]) for k, i in enumerate(levels)]
+    return line_chart(series + _limit_series(x, limit), width_mm=84, height_mm=48,
+                      xlabel="wheel travel, both wheels [mm]",
+                      ylabel="steering-wheel torque [N*m]",
+                      title="Throttle map over heave (drive torque per side)",
+                      xrange=(x[0], x[-1]))
+
+
+def _charts(ts) -> list:
+    lim = ts.limits
+    heave = _curve_chart(ts.heave, lim["steering_wheel_torque"],
+                         "wheel travel, both wheels [mm]", "Over heave travel")
+    roll = _curve_chart(ts.roll, lim["steering_wheel_torque"],
+                        "roll travel r, left wheel up [mm]", "Over roll travel")
+    steer = _curve_chart(ts.steer, lim["steering_wheel_torque_lock"],
+                         "rack travel, + towards the left [mm]",
+                         "Over the rack range (design travel)")
+    tmap = _map_chart(ts, lim["steering_wheel_torque"])
+    return [side_by_side(heave, roll), gap(2), side_by_side(steer, tmap),
+            caption("Design torque, joint efficiency included. Dotted: the limits of the "
+                    "checks below.")]
+
+
+def _checks(result) -> list:
+    rows, fail = [], []
+    for c in result.checks:
+        if not c.id.startswith("steering_wheel_torque"):
             continue
-        x = d[xkey]
-        series = [Series("steering-wheel torque", _xy(x, d["steering_wheel_torque_nm"]), st.TEAL),
-                  Series(f"+/- {limit:g} N*m limit", [(x[0], limit), (x[-1], limit)], st.FAIL,
-                         dash=DOTTED, width=0.9),
-                  Series("", [(x[0], -limit), (x[-1], -limit)], st.FAIL, dash=DOTTED,
-                         width=0.9)]
-        charts.append(line_chart(series, width_mm=84, height_mm=48, xlabel=xlabel,
-                                 ylabel="steering-wheel torque [N*m]", title=title,
-                                 xrange=(x[0], x[-1])))
-    return charts
-
-
-def _worst(ts: dict) -> list:
-    rows = [[st.esc(w["condition"]), st.fixed(w["steering_wheel_torque_nm"], 2),
-             st.esc(w["where"]), st.esc(w["dominant_mechanism"])]
-            for w in ts.get("worst_cases", [])]
+        if not c.passed:
+            fail.append(len(rows))
+        rows.append([st.esc(c.title), st.esc(c.location), _nm(c.value, 3),
+                     f"&lt;= {st.fixed(c.limit, 2)}", st.met(c.passed)])
     if not rows:
         return []
+    return [KeepTogether([data_table(["Check", "Where", "|T_sw| [N*m]", "Limit [N*m]",
+                                      "Verdict"], rows, [56, 56, 20, 20, 18], right=(2, 3),
+                                     highlight_rows=tuple(fail))])]
+
+
+def _worst(ts) -> list:
+    rows, fail = [], []
+    for w in ts.worst_cases:
+        limit = ts.limits[_CHECK_OF[w.condition]]
+        if abs(w.steering_wheel_torque) > limit:
+            fail.append(len(rows))
+        if abs(w.steering_wheel_torque) < RESOLUTION_NM:
+            rows.append([st.esc(w.condition), _nm(0.0, 3),
+                         f"below {RESOLUTION_NM:g} N*m everywhere", "-"])
+            continue
+        rows.append([st.esc(w.condition), _nm(w.steering_wheel_torque, 3), st.esc(w.where),
+                     st.esc(w.short_dominant)])
     return [data_table(["Condition", "Steering wheel [N*m]", "Where", "Dominant mechanism"],
-                       rows, [22, 28, 40, 80], right=(1,))]
+                       rows, [26, 30, 50, 64], right=(1,), highlight_rows=tuple(fail))]
 
 
-def _split_mu(sm) -> list:
-    if not sm:
-        return []
-    rows = [(st.esc(k.replace("_", " ")), st.num(v, 4) if isinstance(v, (int, float))
-             else st.esc(v)) for k, v in sm.items() if not isinstance(v, (list, dict))]
+def _split_mu(ts) -> list:
+    sm = ts.split_mu
+    if sm is None:
+        return [gap(1), para("Split friction: not evaluated, the differential is open (it "
+                             "cannot pass more torque to the grippy side).", st.SMALL)]
+    limit = ts.limits.get("steering_wheel_torque_split_mu")
+    tbr = ("locked" if math.isinf(sm.torque_bias_ratio)
+           else f"torque bias ratio {sm.torque_bias_ratio:g}")
+    rows, fail = [], []
+    for c in sm.cases:
+        if limit is not None and abs(c.steering_wheel_torque) > limit:
+            fail.append(len(rows))
+        rows.append([f"low friction {c.low_side}", st.fixed(c.torque_left, 0),
+                     st.fixed(c.torque_right, 0), _nm(c.net_moment), _nm(c.steering_wheel_torque,
+                                                                          3)])
     out = sub("Split-friction launch")
-    out.append(data_table(["Quantity", "Value"], [list(r) for r in rows], [90, 80], right=()))
+    out.append(data_table(["Case", "Left wheel [N*m]", "Right wheel [N*m]", "Net [N*m]",
+                           "Steering wheel [N*m]"], rows, [50, 30, 30, 30, 30],
+                          right=(1, 2, 3, 4), highlight_rows=tuple(fail)))
+    out.append(caption(f"mu {sm.mu_low:g} / {sm.mu_high:g}, {tbr}; low-friction wheel at its "
+                       "limit, design position, ideal joints."))
     return out
 
 
-def _transient(tr: dict) -> list:
-    if not tr or not tr.get("time_s"):
-        return []
-    t = [v * st.MS for v in tr["time_s"]]
-    torques = [Series("left wheel torque", _xy(t, tr["torque_left_nm"]), st.TEAL),
-               Series("right wheel torque", _xy(t, tr["torque_right_nm"]), st.OCHRE,
-                      dash=(4, 2.5))]
-    pull = [Series("steering-wheel torque", _xy(t, tr["steering_wheel_torque_nm"]), st.PLUM)]
-    c1 = line_chart(torques, width_mm=84, height_mm=48, xlabel="time [ms]",
+def _transient(tr) -> list:
+    if tr is None:
+        return [para("Transient after a throttle step: not computed for this result "
+                     "(``check --transient``, the torque-steer command and the report compute "
+                     "it).", st.SMALL)]
+    t = [float(v) * st.MS for v in tr.time]
+    end = f"{tr.end_time * st.MS:.0f} ms"
+    torques = [Series("left wheel torque", _xy(t, tr.torque_left), st.TEAL),
+               Series("right wheel torque", _xy(t, tr.torque_right), st.OCHRE, dash=(4, 2.5))]
+    c1 = line_chart(torques, width_mm=84, height_mm=48, xlabel=f"time [ms], 0 to {end}",
                     ylabel="halfshaft torque [N*m]", title="Wheel torques after the step",
                     xrange=(t[0], t[-1]))
-    c2 = line_chart(pull, width_mm=84, height_mm=48, xlabel="time [ms]",
-                    ylabel="steering-wheel torque [N*m]", title="Pull after the step",
-                    xrange=(t[0], t[-1]))
-    s = tr.get("summary", {})
+    sw, t_sw = tr.peak(tr.steering_wheel_torque)
+    if abs(sw) < RESOLUTION_NM:
+        c2 = para(f"The steering-wheel torque stays below {RESOLUTION_NM:g} N*m over the "
+                  f"{end} (numerical noise of a symmetric layout): not plotted.", st.SMALL)
+    else:
+        pull = [Series("steering-wheel torque", _xy(t, tr.steering_wheel_torque), st.PLUM)]
+        c2 = line_chart(pull, width_mm=84, height_mm=48, xlabel=f"time [ms], 0 to {end}",
+                        ylabel="steering-wheel torque [N*m]", title="Pull after the step",
+                        xrange=(t[0], t[-1]))
+    diff, t_diff = tr.peak(tr.torque_difference)
     out = sub("Transient after a throttle step")
-    out.append(text(f"Input: {tr.get('input', '')}; differential: {tr.get('differential')}."))
+    out.append(text(f"Input: {tr.input_text}; differential: {tr.differential}; simulated for "
+                    f"{end}."))
     out.append(side_by_side(c1, c2))
     out.append(gap(1))
+    pull_text = (f"largest steering-wheel torque {_nm(sw, 3)} N*m at {t_sw * st.MS:.0f} ms"
+                 if abs(sw) >= RESOLUTION_NM else
+                 f"steering-wheel torque below {RESOLUTION_NM:g} N*m throughout")
     out.append(para(
-        f"Largest left-right torque difference {st.num(s.get('max_abs_torque_difference_nm'), 3)}"
-        f" N*m at {st.fixed(s.get('time_of_max_abs_torque_difference_ms'), 0)} ms; largest "
-        f"steering-wheel torque {st.num(s.get('max_abs_steering_wheel_torque_nm'), 3)} N*m at "
-        f"{st.fixed(s.get('time_of_max_abs_steering_wheel_torque_ms'), 0)} ms; final wheel "
-        f"torques {st.fixed(s.get('final_torque_left_nm'), 1)} / "
-        f"{st.fixed(s.get('final_torque_right_nm'), 1)} N*m.", st.SMALL))
-    if tr.get("statement"):
-        out.append(text(tr["statement"], st.SMALL))
+        f"Largest left-right torque difference {_nm(abs(diff), 2)} N*m at "
+        f"{t_diff * st.MS:.0f} ms; {pull_text}; final wheel torques "
+        f"{st.fixed(float(tr.torque_left[-1]), 1)} / "
+        f"{st.fixed(float(tr.torque_right[-1]), 1)} N*m. Model parameters without a design "
+        "key (carrier and side-gear inertia, damping, initial speed, duration) are the sourced "
+        "defaults of the project.", st.SMALL))
+    if tr.statement:
+        out.append(text(tr.statement, st.SMALL))
     return [KeepTogether(out)]
 
 
-def torque_steer(result, rd: dict) -> list:
-    ts = rd.get("torque_steer")
+def torque_steer(result) -> list:
+    ts = result.torque_steer
     out = section("5  Torque steer")
-    if not ts:
+    if ts is None:
         return out + [para("No torque-steer results.")]
     out.append(intro("The moment each side's drive forces and joints put about its steering "
-                    "axis, and the net pull felt at the steering wheel (idealised quasi-static "
-                    "model: no friction, no assistance, rigid links)."))
+                     "axis, and the net pull felt at the steering wheel (idealised quasi-static "
+                     "model: no friction, no assistance, rigid links)."))
     out += sub("Moment budget by mechanism")
     out += _budget(ts)
-    limit = result.design.criteria.steering_wheel_torque_max_nm
-    charts = _pull_charts(ts, limit)
-    if charts:
-        out += sub("Steering-wheel torque over travel and roll")
-        out.append(side_by_side(*charts) if len(charts) == 2 else charts[0])
+    out += sub("Steering-wheel torque over travel, roll, steer and throttle")
+    out += _charts(ts)
+    out += _checks(result)
     out.append(gap(2))
     out += _worst(ts)
-    out += _split_mu(ts.get("split_mu"))
-    out += _transient(ts.get("transient"))
+    out += _split_mu(ts)
+    out += _transient(result.transient)
     return out
