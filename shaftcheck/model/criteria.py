@@ -5,19 +5,21 @@ Every key of ``[criteria]`` is optional. The defaults and where they come from:
 =================================  ========  ==================================================
 key                                default   basis
 =================================  ========  ==================================================
-stiffness_mismatch_max_pct         5.0       common practice, no source (the reference notes
-                                             found no published limit, §6 of the kinematics
-                                             notes)
-joint_angle_difference_max_deg     1.0       common practice, no source; the notes (§5.2) show
-                                             about 7 N*m kingpin moment per 0.8 deg at 1000 N*m
-static_safety_min                  1.3       common practice, no source (against S_sy with K_ts)
-abuse_safety_min                   1.0       common practice, no source: no first yield at the
-                                             notch root under the abuse torques
+stiffness_mismatch_max_pct         5.0       common practice, no source (no published limit
+                                             was found; docs/methods.md §16.2)
+joint_angle_difference_max_deg     1.0       common practice, no source; the model of
+                                             docs/methods.md §11 gives about 7 N*m kingpin
+                                             moment per 0.8 deg at 1000 N*m
+static_safety_min                  1.3       common practice, no source (against S_sy on the
+                                             nominal shear; ductile steel: no K_ts, Shigley §3-13)
+abuse_safety_min                   1.0       common practice, no source: no first yield of the
+                                             nominal section under the abuse torques
 fatigue_safety_min                 1.3       common practice, no source
-buckling_safety_min                2.0       common practice for elastic shell buckling of thin
-                                             tubes without a knock-down analysis, no source
+buckling_safety_min                1.1       EN 1993-1-6 partial factor gamma_M1 = 1.1 (Table
+                                             4.2, recommended) on the chi_tau-reduced resistance
 critical_speed_margin_min          1.3       driveline practice: max speed <= 0.7-0.75 of the
-                                             first critical speed (notes §7, [M/P])
+                                             first critical speed (from memory and common
+                                             practice, docs/methods.md §10.1)
 miner_damage_max                   1.0       Miner's rule, failure at D = 1 (Shigley §6-17)
 steering_wheel_torque_max_nm       5.0       common practice, not a published limit; the model
                                              has no friction and no power assistance
@@ -51,7 +53,7 @@ class Criteria:
     static_safety_min: float = 1.3
     abuse_safety_min: float = 1.0
     fatigue_safety_min: float = 1.3
-    buckling_safety_min: float = 2.0
+    buckling_safety_min: float = 1.1
     critical_speed_margin_min: float = 1.3
     miner_damage_max: float = 1.0
     steering_wheel_torque_max_nm: float = 5.0
