@@ -91,6 +91,8 @@ class GeometryResult:
             out[f"max_{which}_angle_difference_travel_mm"] = at * 1e3
         out["travel_mm"] = self.travel * 1e3
         out["rack_mm"] = self.rack * 1e3
+        out["references"] = ["halfshaft_geometry"] + (["cardan_kinematics"] if self.cardans
+                                                      else [])
         if self.cardans:
             out["cardan"] = {f"{c.side}_{c.which}": {
                 "working_angle_deg": c.working_angle * RAD2DEG,
