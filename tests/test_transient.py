@@ -191,3 +191,51 @@ def test_transient_study_uses_the_design_and_the_defaults(tubular_design):
     json.dumps(d)
     assert d["peak_torque_difference_nm"] == pytest.approx(np.max(np.abs(tr.torque_difference)))
     assert len(d["time_s"]) == len(d["torque_left_nm"]) == 101
+
+
+@pytest.mark.parametrize("differential, tbr, sigma, held_wheels", [
+    ("open", 1.0, 0.0, False), ("locked", 1.0, 0.25, False), ("limited_slip", 2.5, 0.25, False),
+    ("limited_slip", 2.5, 0.0, True)])
+def test_scalar_right_hand_side_matches_the_vectorised_helpers(differential, tbr, sigma,
+                                                                held_wheels):
+    # the float-only right-hand side against the array helpers that post-process the solution
+    from shaftcheck.methods import transient as tm
+
+    m = model(differential=differential, torque_bias_ratio=tbr, relaxation_length=sigma,
+              lsd_preload=3.0, wheels_held=held_wheels)
+    f = tm._rhs(m, throttle(1500.0))
+    rng = np.random.default_rng(3)
+    for _ in range(20):
+        y = rng.normal(size=9) * [30, 0.1, 0.05, 0.05, 30, 30, 10, 500, 500] + [30, 0, 0, 0, 30,
+                                                                                 30, 10, 0, 0]
+        t_l, t_r = tm._shaft_torques(m, y)
+        f_l, f_r = tm._tyre_forces(m, y)
+        expect = np.zeros(9)
+        expect[0] = (1500.0 - t_l - t_r) / (m.carrier_inertia + 2 * m.side_gear_inertia)
+        if differential == "open":
+            expect[1] = (t_r - t_l) / (2 * m.side_gear_inertia)
+        elif differential == "limited_slip":
+            expect[1] = (t_r - t_l + 2 * tm._lsd_friction(m, y[1], t_l, t_r)) / (
+                2 * m.side_gear_inertia)
+        expect[2], expect[3] = y[0] + y[1] - y[4], y[0] - y[1] - y[5]
+        if not held_wheels:
+            expect[4] = (t_l - m.radius * f_l) / m.wheel_inertia
+            expect[5] = (t_r - m.radius * f_r) / m.wheel_inertia
+            expect[6] = (f_l + f_r) / m.vehicle_mass
+            if sigma > 0:
+                rate = max(abs(y[6]), m.min_speed) / sigma
+                expect[7] = rate * (tm._tyre_steady(m, y[4], y[6]) - y[7])
+                expect[8] = rate * (tm._tyre_steady(m, y[5], y[6]) - y[8])
+        assert f(0.2, y) == pytest.approx(expect, rel=1e-12, abs=1e-9)
+
+
+@pytest.mark.parametrize("differential, tbr, sigma", [
+    ("open", 1.0, 0.0), ("open", 1.0, 0.25), ("locked", 1.0, 0.0), ("limited_slip", 3.0, 0.25)])
+def test_default_solver_agrees_with_radau(differential, tbr, sigma):
+    # LSODA (the default, for speed) against scipy's implicit Radau at tighter tolerances: the
+    # histories agree to 1e-6 of the input torque
+    m = model(differential=differential, torque_bias_ratio=tbr, relaxation_length=sigma)
+    fast = simulate(m, 2000.0, n_out=501)
+    ref = simulate(m, 2000.0, n_out=501, method="Radau", rtol=1e-10, atol=1e-11)
+    assert np.max(np.abs(fast.torque_left - ref.torque_left)) < 2e-3
+    assert np.max(np.abs(fast.torque_difference - ref.torque_difference)) < 2e-3

@@ -2,8 +2,8 @@
 differential and the wheels, with the steering-wheel torque the wheel torques cause.
 
 Contract: ``run(design, ctx) -> (TransientStudy, checks)`` (no checks: the transient is shown,
-not judged). A stiff ODE solve (:func:`shaftcheck.methods.transient.simulate`, Radau), so it runs
-only when asked: by the torque-steer command, by the report and by ``check --transient``.
+not judged). An ODE solve with a stiff term (:func:`shaftcheck.methods.transient.simulate`), so
+it runs only when asked: by the torque-steer command, by the report and by ``check --transient``.
 
 Inputs: the whole-side stiffness of each side from the context, the vehicle keys of the design
 (mass, wheel inertia, tyre slip stiffness and relaxation length, loaded radius), the differential,

@@ -1,9 +1,16 @@
-"""Benchmark: steady torque-steer grid and one transient solve. Run from the repository folder:
+"""Benchmark: the torque-steer study and the transient study on both examples, and the two
+formula kernels they use. Run from the repository folder:
 
     .venv/bin/python tests/benchmarks/bench_torque_steer.py
 
-Geometry: an invented worked corner (the one of tests/test_torquesteer.py), translated rigidly by
-the wheel travel; unequal shafts. Prints median wall times.
+Prints median wall times (imports warm):
+
+* ``torque_steer.run`` with the context's corner poses already solved (the study's own work: one
+  moment evaluation per side on the whole travel x rack grid, scaled for every torque);
+* ``torque_steer.run`` on a fresh context (adds the one corner solve per side);
+* ``transient.run`` (the stiff ODE solve, run only when asked);
+* the steady kernel on a 41 x 11 grid of an invented corner (the one of tests/test_torquesteer.py,
+  translated rigidly by the wheel travel; unequal shafts) and one transient solve of the model.
 """
 
 import statistics
@@ -13,12 +20,21 @@ from pathlib import Path
 
 import numpy as np
 
-sys.path.insert(0, str(Path(__file__).resolve().parents[2]))
+ROOT = Path(__file__).resolve().parents[2]
+sys.path.insert(0, str(ROOT))
 
+from shaftcheck.io.design_file import load_design  # noqa: E402
 from shaftcheck.methods.torque_steer import steering_axis_moments  # noqa: E402
 from shaftcheck.methods.transient import DrivelineModel, simulate  # noqa: E402
+from shaftcheck.studies import torque_steer, transient  # noqa: E402
+from shaftcheck.studies.context import Context  # noqa: E402
 
 SIGMA, TAU, R = np.radians(13.0), np.radians(3.0), 0.29
+EXAMPLES = ("wren_tubular", "wren_intermediate")
+#: transient parameters of the invented car of tests/test_transient.py
+PARAMS = dict(damping_left=2.0, damping_right=2.0, wheel_inertia=1.0, radius=0.29,
+              slip_stiffness=80.0e3, vehicle_mass=1300.0, initial_speed=10.0,
+              carrier_inertia=25.0, side_gear_inertia=0.01)
 
 
 def corner(sign, dz, inboard):
@@ -41,8 +57,8 @@ def steady_grid():
     return left.total + right.total
 
 
-def transient():
-    model = DrivelineModel(5572.7, 3780.1, differential="locked")
+def transient_solve():
+    model = DrivelineModel(5572.7, 3780.1, **PARAMS, differential="locked")
     return simulate(model, 2000.0, t_end=0.5)
 
 
@@ -55,10 +71,25 @@ def median_time(fn, repeats):
     return statistics.median(times)
 
 
+def study_times(name: str) -> str:
+    design = load_design(ROOT / "example_designs" / f"{name}.toml")
+    ctx = Context(design)
+    torque_steer.run(design, ctx)  # solves the corner poses once
+    warm = median_time(lambda: torque_steer.run(design, ctx), 20)
+    fresh = median_time(lambda: torque_steer.run(design, Context(design)), 5)
+    transient.run(design, ctx)
+    tr = median_time(lambda: transient.run(design, ctx), 3)
+    return (f"{name}: torque_steer.run {1e3 * warm:.1f} ms (poses solved), "
+            f"{1e3 * fresh:.1f} ms (fresh context); transient.run {1e3 * tr:.0f} ms")
+
+
 if __name__ == "__main__":
+    for name in EXAMPLES:
+        print(study_times(name))
     net = steady_grid()
-    print(f"steady grid 41 travel x 11 torque x 2 sides: shape {net.shape}, "
+    print(f"steady kernel 41 travel x 11 torque x 2 sides: shape {net.shape}, "
           f"median {1e3 * median_time(steady_grid, 50):.2f} ms")
-    summary = transient().summary()
-    print(f"transient (locked, 0.5 s, Radau): median {1e3 * median_time(transient, 5):.0f} ms; "
+    summary = transient_solve().summary()
+    print(f"transient kernel (locked, 0.5 s, default solver LSODA): median "
+          f"{1e3 * median_time(transient_solve, 5):.0f} ms; "
           f"max |T_L - T_R| {summary['max_abs_torque_difference_nm']:.1f} N*m")
