@@ -21,6 +21,8 @@ from functools import cached_property
 
 import numpy as np
 
+from shaftcheck.model.defaults import MODEL_DEFAULTS
+
 SIDES = ("left", "right")
 
 #: grid sizes of the studies (points over the travel range and over the rack range); the design
@@ -29,7 +31,8 @@ GEOMETRY_TRAVEL_POINTS = 35
 GEOMETRY_RACK_POINTS = 15
 TORQUE_STEER_TRAVEL_POINTS = 41
 TORQUE_STEER_RACK_POINTS = 15
-ROLL_POINTS = 13
+#: roll offsets of the roll case: the sourced model defaults (shaftcheck.model.defaults)
+ROLL_POINTS = MODEL_DEFAULTS.roll_points
 
 
 def grid(lo: float, hi: float, n: int) -> np.ndarray:
