@@ -114,6 +114,28 @@ def test_halfshaft_free_body_equilibrium():
     assert abs(np.dot(loads.force_at_outboard, _u(outboard - inboard))) < 1e-10
 
 
+def test_halfshaft_loads_carry_the_shaft_axis_and_length():
+    inboard, outboard = np.array([0.01, 0.2, 0.31]), np.array([-0.02, 0.66, 0.27])
+    loads = halfshaft_loads(800.0, [0.0, 1.0, 0.0], inboard, outboard, [0.0, 1.0, 0.0])
+    assert loads.length == pytest.approx(np.linalg.norm(outboard - inboard), rel=1e-15)
+    assert loads.shaft_axis == pytest.approx(_u(outboard - inboard), rel=1e-15)
+
+
+def test_torque_steer_uses_the_one_free_body():
+    # the steering-axis moments take the outboard moment and force pair of halfshaft_loads (the
+    # one copy of the free body): the joint-moment and shaft-force parts follow from it
+    from shaftcheck.methods.torque_steer import steering_axis_moments
+
+    inboard, outboard = np.array([0.01, 0.2, 0.31]), np.array([-0.02, 0.66, 0.27])
+    d, b = _u([0.05, 1.0, -0.08]), _u([0.1, 1.0, -0.2])
+    k, p = _u([-0.05, -0.22, 0.97]), np.array([0.015, 0.73, 0.0])
+    m = steering_axis_moments(inboard, d, outboard, b, [0.0, 0.74, 0.0], p, k, 900.0, 0.29)
+    loads = halfshaft_loads(900.0, d, inboard, outboard, b)  # b.y > 0: T_s = T
+    assert float(m.joint_moment) == pytest.approx(float(loads.outboard_moment @ k), rel=1e-12)
+    assert float(m.shaft_force) == pytest.approx(
+        float(np.cross(outboard - p, -loads.force_at_outboard) @ k), rel=1e-12)
+
+
 def test_halfshaft_z_layout_has_no_transverse_force():
     # docs/methods.md §4.4: in a Z layout (d parallel to b) there is no transverse force
     loads = halfshaft_loads(1000.0, [0.0, 1.0, 0.0], [0.0, 0.2, 0.31], [0.0, 0.66, 0.29],
