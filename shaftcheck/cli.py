@@ -39,10 +39,17 @@ def _show_version(value: bool):
         raise typer.Exit()
 
 
+TablesFromOpt = typer.Option(None, "--tables-from", file_okay=False,
+                             help="Also allow corner-table files from this folder (by default a "
+                             "design reads tables only from its own folder).")
+_TABLES_FROM: list[Path] = []
+
+
 @app.callback()
 def _root(version: bool = typer.Option(False, "--version", callback=_show_version, is_eager=True,
-                                       help="Print the version and exit.")):
-    pass
+                                       help="Print the version and exit."),
+          tables_from: Path | None = TablesFromOpt):
+    _TABLES_FROM[:] = [] if tables_from is None else [tables_from]
 
 
 def _fail(message: str, code: int = 2):
@@ -88,6 +95,8 @@ def _grid_poses(travel: int, rack: int) -> None:
 
 def _whole_number(text: str) -> int:
     """An integer option written plainly (200000, 200_000) or in e-notation (2e5)."""
+    if isinstance(text, int):  # the default value
+        return text
     text = text.strip()
     if len(text) > 40:
         raise typer.BadParameter(f"{text[:20]}...: not a whole number")
@@ -110,8 +119,10 @@ def _stepped_count(lo: float, hi: float, step: float) -> int:
 
 
 def _output_name(text: str, suffix: str) -> tuple[str, bool]:
-    """``text`` with ``suffix`` added when its name lacks it (any case); (name, added)."""
-    if text.endswith(("/", os.sep)) or Path(text).suffix.lower() == suffix:
+    """``text`` with ``suffix`` added when its name lacks it (any case); (name, added). An empty
+    name, a folder or a name ending in a slash is left as given (the writer refuses it)."""
+    if (text.endswith(("/", os.sep)) or Path(text).name in ("", ".", "..")
+            or os.path.isdir(text) or Path(text).suffix.lower() == suffix):
         return text, False
     return text + suffix, True
 
@@ -149,7 +160,7 @@ def _print_json(data) -> None:
 def _load(path: Path):
     from shaftcheck.io.design_file import load_design
 
-    return load_design(path)
+    return load_design(path, tables_from=_TABLES_FROM[0] if _TABLES_FROM else None)
 
 
 @app.command()
@@ -182,9 +193,14 @@ def check(design: Path = DesignArg, json_: bool = JsonOpt,
 @app.command()
 @guarded
 def size(design: Path = DesignArg,
-         side: str = typer.Option(..., "--side", help="Side to resize: left or right."),
+         side: str | None = typer.Option(None, "--side", help="Side to resize: left or right "
+                                         "(default: both, each matched to the other)."),
          segment: int | None = typer.Option(None, help="Index of the segment to resize "
                                                "(default: the longest solid or tube segment)."),
+         kind: str | None = typer.Option(None, "--kind", help="Section of the resized segment: "
+                                         "tube or solid (default: the segment keeps its kind)."),
+         both: bool = typer.Option(False, "--both", help="Resize one segment on each side to a "
+                                   "common stiffness: least total mass, every check met."),
          wall: float | None = typer.Option(None, help="Wall for the free-diameter tube "
                                               "\\[mm] (default: the segment's, else 3.0)."),
          outer_diameter: float | None = typer.Option(
@@ -193,29 +209,64 @@ def size(design: Path = DesignArg,
          json_: bool = JsonOpt):
     """Sections that bring one side's whole stiffness to the other side's, ranked by mass.
 
+    Each proposal is re-checked for strength with the new section and shown with its governing
+    margin. Without --side both remedies are listed (each side matched to the other).
     Example: shaftcheck size example_designs/wren_tubular.toml --side right
     """
-    if side not in ("left", "right"):
+    if side is not None and side not in ("left", "right"):
         _fail(f"--side = {side!r}: must be left or right")
+    if kind is not None and kind not in ("tube", "solid"):
+        _fail(f"--kind = {kind!r}: must be tube or solid")
     for option, value in (("--segment", segment), ("--wall", wall),
                           ("--outer-diameter", outer_diameter), ("--top", top)):
         _within(option, value)
     if wall is not None and outer_diameter is not None and 2 * wall >= outer_diameter:
         _fail(f"--wall = {wall:g} mm: must be less than half of --outer-diameter "
               f"= {outer_diameter:g} mm")
+    if both:
+        for option, value in (("--side", side), ("--segment", segment),
+                              ("--outer-diameter", outer_diameter)):
+            if value is not None:
+                _fail(f"{option} does not go with --both (it resizes the longest solid or tube "
+                      "segment of each side)")
+        from shaftcheck.studies.sizing_pair import propose_pair
+
+        pair = propose_pair(_load(design), kind=kind,
+                            wall=None if wall is None else wall * 1e-3)
+        if json_:
+            _print_json(pair.to_dict())
+        else:
+            from shaftcheck.output.console import print_pair
+
+            print_pair(pair)
+        return
     from shaftcheck.studies.sizing import propose_sizes
 
     d = _load(design)
-    proposals = propose_sizes(d, side, segment=segment,
-                              wall=None if wall is None else wall * 1e-3,
-                              outer_diameter=None if outer_diameter is None
-                              else outer_diameter * 1e-3)
+    if side is None and segment is not None:
+        _fail("--segment needs --side (segment indices differ between the sides)")
+    options = dict(segment=segment, kind=kind, wall=None if wall is None else wall * 1e-3,
+                   outer_diameter=None if outer_diameter is None else outer_diameter * 1e-3)
+    if side is not None:
+        found = {side: propose_sizes(d, side, **options)}
+    else:
+        from shaftcheck.studies.sizing import propose_both_remedies
+
+        found = propose_both_remedies(d, **options)
     if json_:
-        _print_json(proposals.to_dict(top))
+        out = {n: (p.to_dict(top) if hasattr(p, "to_dict") else {"side": n, "error": p})
+               for n, p in found.items()}
+        _print_json(out[side] if side is not None else out)
     else:
         from shaftcheck.output.console import print_sizes
 
-        print_sizes(proposals, top)
+        for i, (n, p) in enumerate(found.items()):
+            if i:
+                typer.echo("")
+            if hasattr(p, "to_dict"):
+                print_sizes(p, top, caution=i == len(found) - 1)
+            else:
+                typer.echo(f"{n} side: no proposal - {p}")
 
 
 @app.command()
@@ -396,9 +447,9 @@ def report(design: Path = DesignArg,
         f"{len(result.failed)} check(s) NOT met"
     typer.echo(f"wrote {shown(output)}{' (.pdf added to the name given)' if added else ''}: "
                f"{verdict}")
-    from shaftcheck.output.cautions import CAUTION_LINE
+    from shaftcheck.output.console import print_caution
 
-    typer.echo(CAUTION_LINE)
+    print_caution()
     raise typer.Exit(0 if result.verdict == "pass" else 1)
 
 

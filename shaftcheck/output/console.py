@@ -1,4 +1,10 @@
-"""Terminal output of the commands (rich tables). Presentation only: no formula lives here."""
+"""Terminal output of the commands. Presentation only: no formula lives here.
+
+Every function follows the width rules of :mod:`shaftcheck.output.layout` (no line longer than
+the console, box drawing and colour only on a terminal, wide tables only when it is wide) and
+prints numbers through :mod:`shaftcheck.output.numbers` (noise prints as 0, a value and its
+limit never print alike when they differ, margins capped).
+"""
 
 from __future__ import annotations
 
@@ -7,148 +13,303 @@ from contextlib import contextmanager
 
 from rich.console import Console
 from rich.table import Table
+from rich.text import Text
 
 from shaftcheck.output.cautions import CAUTION_LINE
+from shaftcheck.output.layout import Col, print_lines, print_table, print_text, width_of
+from shaftcheck.output.numbers import (
+    MARGIN_CAP_PCT,
+    RESOLUTION,
+    distinct_pair,
+    fmt_margin,
+    fmt_number,
+)
 from shaftcheck.units import NMRAD_TO_NMDEG
 
 console = Console()
 
-
-def fmt(x) -> str:
-    """A value for a table cell: about four significant figures."""
-    if x is None:
-        return "-"
-    if isinstance(x, float):
-        if math.isnan(x):
-            return "-"
-        if math.isinf(x):
-            return "inf"
-        if x != 0 and (abs(x) >= 1e6 or abs(x) < 1e-3):
-            return f"{x:.3g}"
-        if abs(x) >= 100:
-            return f"{x:,.1f}"
-        return f"{x:.3f}" if abs(x) < 10 else f"{x:.2f}"
-    return str(x)
+#: a terminal at least this wide gets the check table with full titles in a box
+WIDE = 120
+VERDICT_STYLE = {"met": "green", "NOT MET": "bold red"}
 
 
-def _margin(m: float) -> str:
-    if math.isinf(m):
-        return "-"
-    return f"{100 * m:+.0f} %"
+def fmt(x, unit: str | None = None) -> str:
+    """A value for a table cell: four significant figures, 0 below the resolution of ``unit``
+    (see :mod:`shaftcheck.output.numbers`)."""
+    return fmt_number(x, unit)
+
+
+def print_caution() -> None:
+    """The safety caution, wrapped to the console width."""
+    print_text(console, CAUTION_LINE, hanging="", style="yellow")
+
+
+# --- check ---------------------------------------------------------------------------------------
+def short_id(c) -> str:
+    """A check's id without its side (the side has its own column)."""
+    parts = c.id.split("_")
+    if c.side in ("left", "right") and c.side in parts:
+        parts.remove(c.side)
+    return "_".join(parts)
+
+
+def check_cells(c) -> tuple[str, str, str]:
+    """(value, '<= limit' or '>= limit', unit) of a check: digits enough to tell value and limit
+    apart, noise as 0."""
+    unit = "" if c.unit == "-" else c.unit
+    if c.value is None or (isinstance(c.value, float) and math.isnan(c.value)):
+        value, limit = "-", fmt_number(c.limit, c.unit)
+    else:
+        value, limit = distinct_pair(c.value, c.limit, c.unit)
+    return value, ("<= " if c.sense == "max" else ">= ") + limit, unit
+
+
+def _resolution_text() -> str:
+    by_res: dict[float, list[str]] = {}
+    for unit, res in RESOLUTION.items():
+        if unit != "-":
+            by_res.setdefault(res, []).append(unit)
+    return "; ".join(f"{_power(res)} {', '.join(units)}" for res, units in sorted(by_res.items()))
+
+
+def _power(x: float) -> str:
+    """1e-06 -> '1e-6'."""
+    mant, exp = f"{x:.0e}".split("e")
+    return f"{mant}e{int(exp)}"
+
+
+def check_legend() -> list[str]:
+    """The conventions of the check table, printed under it."""
+    return [
+        "check: its id in --json output, without the side. margin: the share of the limit "
+        "still free, (limit - value)/|limit| under an upper limit (<=) and (value - limit)/"
+        f"|limit| over a lower limit (>=); negative = not met; beyond {MARGIN_CAP_PCT:.0f} % "
+        f"shown as >+{MARGIN_CAP_PCT:.0f}%.",
+        f"Values below the resolution of their unit ({_resolution_text()}) print as 0; where a "
+        "value and its limit would print alike, digits are added until they differ.",
+        "Stiffness mismatch: 100 |k_left - k_right| / mean of the two sides' whole stiffness. "
+        "Rack travel: positive = rack towards the car's left (+y). Steering-wheel torque: "
+        "positive = pull towards a left turn (the driver holds against it).",
+    ]
+
+
+def _check_wide(result, title: str) -> None:
+    t = Table(title=title, title_justify="left", expand=True)
+    t.add_column("check (id, governing location)", ratio=1, overflow="fold")
+    for col in ("side", "value", "limit", "margin", "verdict"):
+        t.add_column(col, no_wrap=True, justify="right" if col in ("value", "limit", "margin")
+                     else "left")
+    for c in result.checks:
+        value, limit, unit = check_cells(c)
+        u = f" {unit}" if unit else ""
+        cell = Text(c.title)
+        cell.append(f"\n{c.id}" + (f": {c.location}" if c.location else ""), style="dim")
+        verdict = "met" if c.passed else "NOT MET"
+        t.add_row(cell, c.side, value + u, limit + u, fmt_margin(c.margin),
+                  Text(verdict, style=VERDICT_STYLE[verdict]))
+    console.print(t)
+
+
+def _check_compact(result, title: str) -> None:
+    cols = [Col("check", key=True), Col("side"), Col("value", "right", gap=1),
+            Col("limit", "right", gap=1), Col("unit", gap=1), Col("margin", "right"),
+            Col("verdict")]
+    rows, details = [], []
+    for c in result.checks:
+        value, limit, unit = check_cells(c)
+        rows.append([short_id(c), c.side, value, limit, unit, fmt_margin(c.margin),
+                     "met" if c.passed else "NOT MET"])
+        details.append(c.location or None)
+
+    def style(r, i):
+        return VERDICT_STYLE[rows[r][6]] if i == 6 else None
+
+    print_table(console, title, cols, rows, details=details, style=style)
 
 
 def print_check(result) -> None:
+    """The check table: one line per check (and its governing location indented below) in 80
+    columns or a CI log; a boxed table with full titles on a terminal of at least WIDE columns.
+    Then the legend, the stiffness summary, the notices, the verdict and the caution."""
     d = result.design
-    t = Table(title=f"{d.project.name} - rev {d.project.revision} ({d.project.date})",
-              title_justify="left", show_lines=False, expand=True)
-    t.add_column("check (governing location)", ratio=1, overflow="fold")
-    t.add_column("side", no_wrap=True)
-    t.add_column("value", justify="right", no_wrap=True)
-    t.add_column("limit", justify="right", no_wrap=True)
-    t.add_column("margin", justify="right", no_wrap=True)
-    t.add_column("verdict", no_wrap=True)
-    for c in result.checks:
-        unit = "" if c.unit == "-" else f" {c.unit}"
-        where = f"\n[dim]{c.location}[/dim]" if c.location else ""
-        t.add_row(f"{c.title}{where}", c.side, fmt(c.value) + unit,
-                  ("<= " if c.sense == "max" else ">= ") + fmt(c.limit) + unit,
-                  _margin(c.margin),
-                  "[green]met[/green]" if c.passed else "[bold red]NOT MET[/bold red]")
-    console.print(t)
-    s = result.sides
-    console.print(
-        f"stiffness: left {s.left.stiffness.whole * NMRAD_TO_NMDEG:.1f} N*m/deg, right "
-        f"{s.right.stiffness.whole * NMRAD_TO_NMDEG:.1f} N*m/deg, mismatch "
-        f"{s.mismatch_pct:.2f} % of the mean; design torque "
-        f"{s.left.design_torque:.0f} N*m per side")
-    for n in result.notices:
-        console.print(f"note: {n}")
-    n_fail = len(result.failed)
-    if n_fail == 0:
-        console.print(f"[bold green]VERDICT: all {len(result.checks)} checks met[/bold green]")
+    title = f"{d.project.name} - rev {d.project.revision} ({d.project.date})"
+    if console.is_terminal and width_of(console) >= WIDE:
+        _check_wide(result, title)
     else:
-        console.print(f"[bold red]VERDICT: {n_fail} of {len(result.checks)} checks NOT met"
-                      "[/bold red]")
-    console.print(CAUTION_LINE, style="yellow")
+        _check_compact(result, title)
+    print_lines(console, [""])
+    for text in check_legend():
+        print_text(console, text, hanging="  ", style="dim")
+    s = result.sides
+    print_text(console,
+               f"stiffness: left {s.left.stiffness.whole * NMRAD_TO_NMDEG:.1f} N*m/deg, right "
+               f"{s.right.stiffness.whole * NMRAD_TO_NMDEG:.1f} N*m/deg, mismatch "
+               f"{fmt_number(s.mismatch_pct, '%')} % of the mean; design torque "
+               f"{s.left.design_torque:.0f} N*m per side")
+    for n in result.notices:
+        print_text(console, f"note: {n}")
+    failed = result.failed
+    if not failed:
+        print_text(console, f"VERDICT: all {len(result.checks)} checks met", style="bold green")
+    else:
+        print_text(console, f"VERDICT: {len(failed)} of {len(result.checks)} checks NOT met: "
+                   + ", ".join(c.id for c in failed), style="bold red")
+    print_caution()
 
 
+# --- materials -------------------------------------------------------------------------------
 def print_materials(mats: dict) -> None:
-    console.print("[bold]shaftcheck material library[/bold] (a design's own \\[materials] table "
-                  "shadows these ids)", markup=True, highlight=False)
+    """The material library, each entry with its continuation lines indented."""
+    print_text(console, "shaftcheck material library (a design's own [materials] table shadows "
+               "these ids)", style="bold")
     for k, m in mats.items():
-        console.print(f"\n[bold]{k}[/bold]  {m.name}", highlight=False)
-        console.print(f"  E {m.elastic_modulus / 1e9:.0f} GPa, G {m.shear_modulus / 1e9:.1f} GPa, "
-                      f"nu {m.poisson_ratio:.3f}, {m.density:.0f} kg/m^3; S_ut "
-                      f"{m.ultimate_strength / 1e6:.0f} MPa, S_y {m.yield_strength / 1e6:.0f} MPa "
-                      f"({m.basis}); finish {m.surface_finish}", highlight=False)
-        console.print(f"  source: {m.source}", highlight=False, markup=False)
-    console.print("\nValues marked [M] are from memory: verify them in the named source before "
-                  "release.", markup=False)
+        print_lines(console, [""])
+        print_text(console, f"{k}  {m.name}", hanging="    ", style="bold")
+        print_text(console,
+                   f"E {m.elastic_modulus / 1e9:.0f} GPa, G {m.shear_modulus / 1e9:.1f} GPa, nu "
+                   f"{m.poisson_ratio:.3f}, {m.density:.0f} kg/m^3; S_ut "
+                   f"{m.ultimate_strength / 1e6:.0f} MPa, S_y {m.yield_strength / 1e6:.0f} MPa "
+                   f"({m.basis}); finish {m.surface_finish}", indent="  ", hanging="    ")
+        print_text(console, f"source: {m.source}", indent="  ", hanging="    ")
+    print_lines(console, [""])
+    print_text(console, "Values marked [M] are from memory: verify them in the named source "
+               "before release.")
 
 
-def print_sizes(p, top: int) -> None:
+# --- size ----------------------------------------------------------------------------------------
+def _strip_side(check_id: str) -> str:
+    return "_".join(t for t in check_id.split("_") if t not in ("left", "right"))
+
+
+def _proposal_rows(ranked) -> tuple[list, list]:
+    rows, details = [], []
+    for p in ranked:
+        r = p.to_dict()
+        section = r["section"].rsplit(", ", 1)[0]  # the length is the segment's, shown above
+        verdict = "passes" if r["passes_all_checks"] else (
+            "fails " + ", ".join(r["failed_checks"]) if r["checked"] else "not checked")
+        rows.append([section, "std" if r["standard_size"] else "free", f"{r['mass_kg']:.3f}",
+                     fmt_number(r["mismatch_pct"], "%"),
+                     fmt_margin(r["governing_margin"]) if r["governing_margin"] is not None
+                     else "n/a", _strip_side(r["governing_check"]) or "-"])
+        details.append("; ".join(x for x in (verdict if not r["passes_all_checks"] else "",
+                                             r["note"]) if x) or None)
+    return rows, details
+
+
+def print_sizes(p, top: int, caution: bool = True) -> None:
+    """Proposals for one side, lightest first, each with its governing strength margin."""
     d = p.to_dict(top)
-    console.print(f"resize {d['side']} segment [{d['segment_index']}] ({d['segment']}) to match "
-                  f"{d['target_stiffness_nm_per_deg']:.1f} N*m/deg (now "
-                  f"{d['current_stiffness_nm_per_deg']:.1f}, mismatch "
-                  f"{d['current_mismatch_pct']:.2f} %)")
-    t = Table(title="proposals, lightest first (mass of the resized segment)",
-              title_justify="left")
-    for col in ("proposal", "section", "kg", "mismatch", "shear", "static SF"):
-        t.add_column(col, no_wrap=col != "section", justify="left" if col in
-                     ("proposal", "section") else "right")
-    for r in d["free"] + d["standard"]:
-        t.add_row(r["kind"], r["section"], f"{r['mass_kg']:.2f}", f"{r['mismatch_pct']:.2f} %",
-                  f"{r['nominal_shear_mpa']:.0f} MPa", f"{r['static_safety']:.2f}")
-    console.print(t)
-    console.print("shear: nominal at the design torque; static SF: S_sy / nominal shear (no "
-                  "stress concentration; run check for the full assessment)")
-    console.print(f"standard sizes: {d['standard_origin']}")
-    console.print(CAUTION_LINE, style="yellow")
+    print_text(console,
+               f"{d['side']} side: resize segment [{d['segment_index']}] ({d['segment']}) to "
+               f"match {d['target_stiffness_nm_per_deg']:.1f} N*m/deg (now "
+               f"{d['current_stiffness_nm_per_deg']:.1f}, mismatch "
+               f"{fmt_number(d['current_mismatch_pct'], '%')} %, limit "
+               f"{fmt_number(d['mismatch_limit_pct'], '%')} %); {d['kind']} sections")
+    ranked = p.ranked(top)
+    rows, details = _proposal_rows(ranked)
+    cols = [Col("section", key=True), Col("size"), Col("kg", "right"),
+            Col("mismatch %", "right"), Col("margin", "right"), Col("governing check")]
+
+    def style(r, i):
+        return None if i != 4 else ("green" if ranked[r].passes else "bold red")
+
+    print_table(console, "proposals, lightest first (mass of the resized segment)", cols, rows,
+                details=details if any(details) else None, style=style)
+    best = p.lightest_passing(top)
+    print_text(console, "lightest that passes every check: " + (
+        best.segment.describe() + f", {best.mass:.3f} kg" if best else
+        "none - the governing check is not in this segment; see shaftcheck check"))
+    for r in d["rejected"]:
+        print_text(console, f"not proposed: {r['kind']} {r['section']}: {r['reason']}")
+    print_text(console, "size: std = a standard size, free = solved for zero mismatch. margin: "
+               "the smallest margin of the side's strength checks (static, abuse, fatigue, "
+               "damage, buckling, whirl) re-run with the new section, as in check; "
+               f"{d['standard_within_limit']} of {d['standard_evaluated']} standard sizes meet "
+               "the mismatch limit.", hanging="  ", style="dim")
+    print_text(console, f"standard sizes: {d['standard_origin']}", hanging="  ", style="dim")
+    if caution:
+        print_caution()
 
 
+def print_pair(pp) -> None:
+    """The two-sided sizing: free optimum and a standard pair."""
+    d = pp.to_dict()
+    print_text(console, "both sides resized to one common stiffness (zero mismatch) for the "
+               "least total mass with every strength check met; " + d["note"])
+    cols = [Col("option", key=True), Col("side"), Col("section"), Col("size"),
+            Col("kg", "right"), Col("N*m/deg", "right")]
+    rows, details = [], []
+    for o in (pp.free, pp.standard):
+        if o is None:
+            continue
+        od = o.to_dict()
+        for n in ("left", "right"):
+            s = od[n]
+            rows.append([od["label"] if n == "left" else "", n,
+                         s["section"].rsplit(", ", 1)[0], "std" if s["standard_size"] else "free",
+                         f"{s['mass_kg']:.3f}", f"{s['side_stiffness_nm_per_deg']:.1f}"])
+            details.append(None)
+        verdict = "passes every check" if o.passes else "fails " + ", ".join(o.failed)
+        details[-1] = (f"total {o.total_mass:.3f} kg (now {pp.current_mass:.3f} kg), mismatch "
+                       f"{fmt_number(o.mismatch_pct, '%')} %, margin "
+                       f"{fmt_margin(o.governing_margin)} ({o.governing_check}): {verdict}")
+    print_table(console, "two-sided proposals", cols, rows, details=details)
+    print_text(console, "margin: the smallest margin of both sides' strength checks re-run with "
+               "the new sections, as in check.", hanging="  ", style="dim")
+    print_caution()
+
+
+# --- bearing -------------------------------------------------------------------------------------
 def print_bearing(b: dict) -> None:
-    console.print(f"intermediate shaft on the {b['side']} side: length {b['length_mm']:.1f} mm "
-                  f"({'placed by shaftcheck' if b['placed'] else 'given in the design'})")
+    how = "placed by shaftcheck" if b["placed"] else "given in the design"
+    print_text(console, f"intermediate shaft on the {b['side']} side: length "
+               f"{b['length_mm']:.1f} mm ({how})")
     c = b["bearing_centre_mm"]
-    console.print(f"bearing centre (vehicle axes): x {c[0]:.1f}, y {c[1]:.1f}, z {c[2]:.1f} mm")
+    print_text(console, f"bearing centre (vehicle axes): x {c[0]:.1f}, y {c[1]:.1f}, z "
+               f"{c[2]:.1f} mm")
     ok = b["criterion_met"]
-    console.print(f"largest left-right angle difference over travel: "
-                  f"{b['max_angle_difference_deg']:.3f} deg (limit "
-                  f"{b['angle_difference_limit_deg']:.2f} deg) -> "
-                  + ("[green]met[/green]" if ok else "[bold red]cannot be met[/bold red]"))
-    t = Table(title="joint angles over wheel travel, rack centred (deg)", title_justify="left")
-    for col in ("travel mm", "L inboard", "R inboard", "L outboard", "R outboard"):
-        t.add_column(col, justify="right")
+    value, limit = distinct_pair(b["max_angle_difference_deg"], b["angle_difference_limit_deg"],
+                                 "deg")
+    print_text(console, f"largest left-right angle difference over travel: {value} deg (limit "
+               f"{limit} deg) -> " + ("met" if ok else "cannot be met"),
+               style=None if ok else "bold red")
     a = b["angles"]
-    for i, tr in enumerate(a["travel_mm"]):
-        t.add_row(f"{tr:+.0f}", *(f"{a[k][i]:.2f}" for k in
-                                  ("left_inboard_deg", "right_inboard_deg",
-                                   "left_outboard_deg", "right_outboard_deg")))
-    console.print(t)
+    cols = [Col("travel mm", "right", key=True)] + [
+        Col(h, "right") for h in ("L inboard", "R inboard", "L outboard", "R outboard")]
+    rows = [[f"{tr:+.0f}", *(fmt_number(a[k][i], "deg", decimals=2) for k in
+                             ("left_inboard_deg", "right_inboard_deg", "left_outboard_deg",
+                              "right_outboard_deg"))]
+            for i, tr in enumerate(a["travel_mm"])]
+    print_table(console, "joint angles over wheel travel (+ jounce), rack centred [deg]", cols,
+                rows)
     lo = b["loads"]
-    console.print(f"bearing radial load at design torque: {lo['radial_load_design_n']:.0f} N; "
-                  f"equivalent duty-cycle load {lo['equivalent_load_n']:.0f} N")
+    print_text(console, f"bearing radial load at design torque: {lo['radial_load_design_n']:.0f} "
+               f"N; equivalent duty-cycle load {lo['equivalent_load_n']:.0f} N")
     life = b["life"]
-    console.print(f"basic rating life L10 (ISO 281): {fmt(life['l10_million_rev'])} million rev, "
-                  f"{fmt(life['l10_hours'])} h at {life['speed_rpm']:.0f} rpm, "
-                  f"{fmt(life['l10_km'])} km")
-    console.print(CAUTION_LINE, style="yellow")
+    print_text(console, f"basic rating life L10 (ISO 281): {fmt(life['l10_million_rev'])} "
+               f"million rev, {fmt(life['l10_hours'], 'h')} h at {life['speed_rpm']:.0f} rpm, "
+               f"{fmt(life['l10_km'], 'km')} km")
+    print_caution()
 
 
+# --- sweep ---------------------------------------------------------------------------------------
 def print_sweep(data: dict) -> None:
+    """Joint angles and plunge of both sides: one table per quantity, rows wheel travel, columns
+    rack travel (split into blocks when the columns do not fit)."""
+    print_text(console, "rows: wheel travel [mm], + = jounce; columns: rack travel [mm], + = rack "
+               "towards the car's left (+y)", hanging="  ")
     for side in ("left", "right"):
         for key, label, unit in (("inboard_angle_deg", "inboard joint angle", "deg"),
                                  ("outboard_angle_deg", "outboard joint angle", "deg"),
                                  ("plunge_mm", "plunge (+ longer)", "mm")):
-            t = Table(title=f"{side} side: {label} [{unit}]; rows wheel travel [mm], columns "
-                      "rack travel [mm]", title_justify="left")
-            t.add_column("travel", justify="right")
-            for r in data["rack_mm"]:
-                t.add_column(f"{r:+.0f}", justify="right")
-            for i, tr in enumerate(data["travel_mm"]):
-                t.add_row(f"{tr:+.0f}", *(f"{v:.1f}" for v in data[side][key][i]))
-            console.print(t)
+            cols = [Col("travel", "right", key=True)] + [
+                Col(f"{r:+.0f}", "right") for r in data["rack_mm"]]
+            rows = [[f"{tr:+.0f}", *(fmt_number(v, unit, decimals=1)
+                                     for v in data[side][key][i])]
+                    for i, tr in enumerate(data["travel_mm"])]
+            print_lines(console, [""])
+            print_table(console, f"{side} {label} [{unit}]", cols, rows)
 
 
 def _signed(x: float, decimals: int) -> str:
@@ -232,19 +393,26 @@ def print_torque_steer(ts, transient=None, checks=()) -> None:
 
 
 def print_tolerance(res: dict) -> None:
-    t = Table(title=f"Monte Carlo of tolerances, {res['samples']} samples (seed {res['seed']})",
-              title_justify="left")
-    for col in ("quantity", "nominal", "mean", "-3 sigma", "+3 sigma", "over limit"):
-        t.add_column(col, justify="right" if col != "quantity" else "left")
-    labels = {"stiffness_mismatch_pct": "stiffness mismatch [%]",
-              "inboard_angle_difference_deg": "inboard angle difference [deg]",
-              "outboard_angle_difference_deg": "outboard angle difference [deg]"}
+    """Spread of each output over the tolerance samples, with units and the limit on every row."""
+    print_text(console, f"Monte Carlo of tolerances, {res['samples']} samples (seed "
+               f"{res['seed']})", style="bold")
+    labels = {"stiffness_mismatch_pct": ("stiffness mismatch", "%"),
+              "inboard_angle_difference_deg": ("inboard angle difference", "deg"),
+              "outboard_angle_difference_deg": ("outboard angle difference", "deg")}
+    cols = [Col("quantity", key=True), Col("unit", gap=1), Col("nominal", "right"),
+            Col("mean", "right"), Col("p0.135", "right"), Col("p99.865", "right"),
+            Col("limit", "right"), Col("over", "right")]
+    rows = []
     for q in res["quantities"]:
-        t.add_row(labels.get(q["name"], q["name"]), fmt(q["nominal"]), fmt(q["mean"]),
-                  fmt(q["p_low"]),
-                  fmt(q["p_high"]), f"{100 * q['fraction_over_limit']:.2f} %")
-    console.print(t)
-    console.print(CAUTION_LINE, style="yellow")
+        label, unit = labels.get(q["name"], (q["name"], ""))
+        rows.append([label, unit, *(fmt_number(q.get(k), unit) for k in
+                                    ("nominal", "mean", "p_low", "p_high", "limit")),
+                     f"{100 * q['fraction_over_limit']:.2f} %"])
+    print_table(console, "", cols, rows)
+    print_text(console, "p0.135 / p99.865: the 0.135 and 99.865 percentiles of the samples (the "
+               "+-3 sigma points of a normal spread); over: share of the samples over the limit.",
+               hanging="  ", style="dim")
+    print_caution()
 
 
 @contextmanager
