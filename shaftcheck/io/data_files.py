@@ -24,7 +24,7 @@ def _library_root():
     try:
         return resources.files(LIBRARY_PACKAGE)
     except ModuleNotFoundError:
-        source = Path(__file__).resolve().parent.parent / "materials"
+        source = Path(__file__).resolve().parents[2] / "materials"  # repo/materials
         if not source.is_dir():
             raise
         return source
