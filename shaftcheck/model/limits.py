@@ -29,7 +29,7 @@ from shaftcheck.model.materials import SURFACE_FINISHES
 
 # --- resource maxima (checked before anything is allocated) -----------------------------------
 #: largest design file read [bytes]
-MAX_DESIGN_FILE_BYTES = 1_000_000
+MAX_DESIGN_FILE_BYTES = 512_000
 #: largest corner-table file read [bytes]
 MAX_TABLE_FILE_BYTES = 8_000_000
 #: data rows of one corner table (e.g. 201 travel x 99 rack positions)
