@@ -316,6 +316,13 @@ def test_segment_sum_and_intermediate_range(tmp_path):
     assert err.path == "right.intermediate.length_mm" and "inside length_range_mm" in err.message
 
 
+def test_tolerance_larger_than_a_third_of_its_dimension(tmp_path):
+    # the tubular example's thinnest wall is 2.5 mm: a 0.9 mm (3 sigma) wall tolerance is refused
+    err = _error(write_modified(tmp_path, TUBULAR, _set(**{"tolerances.wall_mm": 0.9})))
+    assert err.path == "tolerances.wall_mm" and "thinnest tube wall (2.5 mm)" in err.message
+    load_design(write_modified(tmp_path, TUBULAR, _set(**{"tolerances.wall_mm": 0.8})))
+
+
 def test_spectrum_bin_with_min_above_max(tmp_path):
     err = _error(write_modified(tmp_path, TUBULAR, _set(**{"loads.spectrum.0.torque_min_nm":
                                                            2000.0})))

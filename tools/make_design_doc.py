@@ -193,6 +193,8 @@ Rules across keys:
   length; `torque_max_nm` not below `torque_min_nm`; `split_mu_high` not below `split_mu_low`;
   the yield strength not above the ultimate strength (a shear modulus more than 15 % from
   E / (2 (1 + nu)) gives a notice);
+* a tolerance at most a third of the dimension it varies (smallest diameter, thinnest tube wall,
+  shortest segment), so that sampled sections stay positive;
 * a joint or material id must be defined (`... is not defined in [joints]`); at most one side
   has an intermediate shaft.
 

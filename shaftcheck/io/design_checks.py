@@ -146,3 +146,21 @@ def check_sides(suspension: Suspension, left: Side, right: Side) -> None:
                                   "outboard joint centre (wheel centre - outboard_joint_offset_mm"
                                   f" x spindle axis); a halfshaft spans {lo * 1e3:g} ... "
                                   f"{hi * 1e3:g} mm")
+
+
+def check_tolerances(tol, sides: tuple) -> None:
+    """A tolerance (3 sigma) at most a third of the dimension it varies, so that the sampled
+    sections stay positive (zero is then 9 sigma away)."""
+    segs = [seg for side in sides for seg in side.segments
+            + (side.intermediate.segments if side.intermediate else ())]
+    diameters = [seg.minor_diameter if seg.kind == "spline" else seg.outer_diameter
+                 for seg in segs]
+    walls = [(seg.outer_diameter - seg.inner_diameter) / 2 for seg in segs if seg.kind == "tube"]
+    rules = (("diameter_mm", tol.diameter, diameters, "smallest diameter"),
+             ("wall_mm", tol.wall, walls, "thinnest tube wall"),
+             ("length_mm", tol.length, [seg.length for seg in segs], "shortest segment"))
+    for key, value, sizes, what in rules:
+        if sizes and value > min(sizes) / 3:
+            raise DesignError(f"tolerances.{key}", f"= {value * 1e3:g} mm: at most a third of "
+                              f"the {what} ({min(sizes) * 1e3:g} mm), so that sampled sections "
+                              "stay positive")

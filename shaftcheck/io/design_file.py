@@ -109,6 +109,7 @@ def design_from_dict(data: dict, path: str = "<memory>", sha256: str = "",
     if left.intermediate and right.intermediate:
         raise DesignError("left.intermediate", "only one side may have an intermediate shaft")
     checks.check_sides(suspension, left, right)
+    checks.check_tolerances(tolerances, (left, right))
     return Design(path, sha256, project, vehicle, powertrain, criteria, materials, joints,
                   suspension, left, right, tuple(spectrum), tolerances, torque_steer,
                   tuple(notices))
