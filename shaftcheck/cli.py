@@ -258,15 +258,16 @@ def size(design: Path = DesignArg,
                for n, p in found.items()}
         _print_json(out[side] if side is not None else out)
     else:
-        from shaftcheck.output.console import print_sizes
+        from shaftcheck.output.console import print_caution, print_no_proposal, print_sizes
 
         for i, (n, p) in enumerate(found.items()):
             if i:
                 typer.echo("")
             if hasattr(p, "to_dict"):
-                print_sizes(p, top, caution=i == len(found) - 1)
+                print_sizes(p, top, caution=False)
             else:
-                typer.echo(f"{n} side: no proposal - {p}")
+                print_no_proposal(n, p)
+        print_caution()
 
 
 @app.command()

@@ -42,8 +42,8 @@ def criteria_block(criteria: type | None = None) -> str:
     """The commented-out ``[criteria]`` table: every criterion at its default (of
     :class:`~shaftcheck.model.criteria.Criteria` unless another class is given)."""
     criteria = Criteria if criteria is None else criteria
-    lines = ["# [criteria]                            # the defaults: uncomment a line to "
-             "change one"]
+    lines = ["# [criteria]                            # the defaults; to change one, uncomment "
+             "this line and its"]
     default = criteria()
     for f in fields(criteria):
         value = getattr(default, f.name)

@@ -232,6 +232,11 @@ def print_sizes(p, top: int, caution: bool = True) -> None:
         print_caution()
 
 
+def print_no_proposal(side: str, reason: str) -> None:
+    """Why a side has no proposal (one wrapped line)."""
+    print_text(console, f"{side} side: no proposal - {reason}")
+
+
 def print_pair(pp) -> None:
     """The two-sided sizing: free optimum and a standard pair."""
     d = pp.to_dict()
