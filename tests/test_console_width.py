@@ -184,3 +184,16 @@ def test_terminal_keeps_colour_and_boxes_only_when_wide(monkeypatch, tubular_des
     assert max(len(ln) for ln in plain.splitlines()) <= width
     assert bool(BOX.search(plain)) is boxed
     assert "VERDICT:" in plain and _flat(CAUTION_LINE) in _flat(plain)
+
+
+@pytest.mark.parametrize("fraction, shown", [
+    (0.0, "0.00 %"),
+    (1e-6, "<0.01 %"),  # one sample in a million over the limit is still shown
+    (0.0073, "0.73 %"),
+    (0.999999, ">99.99 %"),
+    (1.0, "100.00 %"),
+])
+def test_share_over_limit_never_rounds_to_zero(fraction, shown):
+    from shaftcheck.output.console import share_pct
+
+    assert share_pct(fraction) == shown

@@ -397,6 +397,16 @@ def print_torque_steer(ts, transient=None, checks=()) -> None:
     console.print(CAUTION_LINE, style="yellow")
 
 
+def share_pct(fraction: float) -> str:
+    """A share of samples in percent, two decimals; a share above zero never prints as 0.00."""
+    pct = 100.0 * fraction
+    if 0 < pct < 0.005:
+        return "<0.01 %"
+    if 99.995 < pct < 100:
+        return ">99.99 %"
+    return f"{pct:.2f} %"
+
+
 def print_tolerance(res: dict) -> None:
     """Spread of each output over the tolerance samples, with units and the limit on every row."""
     print_text(console, f"Monte Carlo of tolerances, {res['samples']} samples (seed "
@@ -412,7 +422,7 @@ def print_tolerance(res: dict) -> None:
         label, unit = labels.get(q["name"], (q["name"], ""))
         rows.append([label, unit, *(fmt_number(q.get(k), unit) for k in
                                     ("nominal", "mean", "p_low", "p_high", "limit")),
-                     f"{100 * q['fraction_over_limit']:.2f} %"])
+                     share_pct(q["fraction_over_limit"])])
     print_table(console, "", cols, rows)
     print_text(console, "p0.135 / p99.865: the 0.135 and 99.865 percentiles of the samples (the "
                "+-3 sigma points of a normal spread); over: share of the samples over the limit.",
