@@ -198,6 +198,11 @@ UNIT_SLIPS = [
      "(around the design position 0): was this metres?"),
     ({"vehicle.front_axle_load_n": 8.4},
      "vehicle.front_axle_load_n = 8.4 N is outside 1000 ... 100000 N: was this kN?"),
+    ({"joints.ball_outer.max_angle_deg": 0.8},
+     "joints.ball_outer.max_angle_deg = 0.8 deg is outside 1 ... 60 deg: was this radians?"),
+    ({"criteria.reliability_pct": 0.99},
+     "criteria.reliability_pct = 0.99 % is outside 50 ... 99.9999 %: was this a fraction "
+     "instead of percent?"),
     ({"left.inboard_centre_mm": [0.012, 0.245, 0.28]},
      "left.inboard_centre_mm = [0.012, 0.245, 0.28] mm: every coordinate is below 1 mm in size: "
      "was this metres?"),
@@ -216,6 +221,14 @@ def test_unit_slip_is_one_line_from_the_cli(tmp_path):
     assert proc.stderr.splitlines() == [
         "shaftcheck: error: powertrain.engine_torque_nm = 0.38 N*m is outside 10 ... 20000 N*m: "
         "was this kN*m?"]
+
+
+def test_unit_slip_inside_the_plausible_range_gives_a_notice_with_a_hint(tmp_path):
+    # 57 m/s is 205 km/h: a legal but unusual top speed in km/h
+    design = load_design(write_modified(tmp_path, TUBULAR, _set(**{"vehicle.max_speed_kmh":
+                                                                   57.0})))
+    assert design.notices == ("vehicle.max_speed_kmh = 57 km/h is outside the typical range "
+                              "100 ... 300 km/h; accepted, please check it: was this m/s?",)
 
 
 def test_unusual_value_gives_a_notice_not_an_error(tmp_path):
