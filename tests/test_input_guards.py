@@ -336,6 +336,14 @@ def test_tolerance_larger_than_a_third_of_its_dimension(tmp_path):
     load_design(write_modified(tmp_path, TUBULAR, _set(**{"tolerances.wall_mm": 0.8})))
 
 
+def test_fillet_larger_than_the_shaft_radius(tmp_path):
+    # the fuzz found a 34.9 mm fillet on the 25 mm solid: the stress-concentration fit then
+    # returned K_ts below 1 and the fatigue notch factor failed (an internal error)
+    err = _error(write_modified(tmp_path, TUBULAR, _set(**{f"left.segments.{S}.fillet_radius_mm":
+                                                           34.9})))
+    assert err.path == f"left.segments[{S}].fillet_radius_mm" and "radius (12.5 mm)" in str(err)
+
+
 def test_spectrum_bin_with_min_above_max(tmp_path):
     err = _error(write_modified(tmp_path, TUBULAR, _set(**{"loads.spectrum.0.torque_min_nm":
                                                            2000.0})))

@@ -329,6 +329,9 @@ def _segment(s: Table) -> Segment:
                               f"the minor ({minor:g}) and major ({major:g}) diameters")
         seg = Segment("spline", length, major * 1e-3, 0.0, minor * 1e-3,
                       None if sd is None else sd * 1e-3, fillet)
+    if fillet is not None and fillet > seg.outer_diameter / 2:
+        raise DesignError(s.key("fillet_radius_mm"), f"= {fillet * 1e3:g} mm: a shoulder fillet "
+                          f"is at most the segment's radius ({seg.outer_diameter * 1e3 / 2:g} mm)")
     s.done()
     return seg
 

@@ -370,7 +370,7 @@ TABLES: tuple[TableSpec, ...] = (
                   _num("length_mm", "mm", (1.0, 3000.0), (5.0, 1500.0), "Segment length."),
                   _num("fillet_radius_mm", "mm", (0.1, 50.0), (0.5, 10.0),
                        "Fillet radius at the step into the next segment (stress "
-                       "concentration).", default=OPTIONAL,
+                       "concentration); at most the segment's radius.", default=OPTIONAL,
                        note="absent: no shoulder fillet is assessed"),
                   _num("diameter_mm", "mm", **_SEGMENT_DIAMETER,
                        meaning="Diameter of a solid segment.", note="solid"),
