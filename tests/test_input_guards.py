@@ -253,6 +253,12 @@ def test_bad_numbers_are_one_short_line(tmp_path, value, words):
     assert err.path == "vehicle.tyre_mu" and words in err.message, str(err)
 
 
+def test_subnormal_component_of_a_direction_counts_as_zero(tmp_path):
+    design = load_design(write_modified(tmp_path, TUBULAR, _set(**{"left.output_axis":
+                                                                   [5e-324, 1.0, 0.0]})))
+    assert design.left.output_axis == (0.0, 1.0, 0.0)
+
+
 def test_integer_past_the_digit_limit_is_refused(tmp_path):
     path = tmp_path / "d.toml"
     text = TUBULAR.read_text(encoding="utf-8")

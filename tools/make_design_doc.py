@@ -175,7 +175,8 @@ Each number has two ranges, in the key's unit:
 
 Both are this tool's plausibility bounds (common practice, no source), not design limits. A
 number must be a finite TOML integer or float (not a quoted string, not `nan` or `inf`, not a
-subnormal, no integer beyond 2^53). Unknown keys are refused with the nearest known key.
+subnormal, no integer beyond 2^53); a subnormal component of a point or direction counts as 0.
+Unknown keys are refused with the nearest known key.
 
 Rules across keys:
 

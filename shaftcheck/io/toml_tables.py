@@ -109,6 +109,10 @@ def _is_number(v: Any) -> bool:
     return isinstance(v, (int, float)) and not isinstance(v, bool)
 
 
+def _subnormal(x: Any) -> bool:
+    return isinstance(x, float) and x != 0.0 and abs(x) < sys.float_info.min
+
+
 def _u(unit: str) -> str:
     return f" {unit}" if unit else ""
 
@@ -367,7 +371,9 @@ class Table:
                    f"{(' in ' + unit) if unit else ''}")
         if any(isinstance(x, float) and not math.isfinite(x) for x in v):
             _raise(self.key(name), f"= {describe(v)}: must hold finite numbers")
-        return [self._finite(self.key(name), x, unit) for x in v]
+        # a subnormal component of a point or direction is 0 for every purpose (a direction
+        # computed by a script may carry one); only single numbers refuse subnormals
+        return [self._finite(self.key(name), 0.0 if _subnormal(x) else x, unit) for x in v]
 
     def point_mm(self, name: str, *, required: bool = True) -> tuple | None:
         """A 3-D point in mm -> metres."""
