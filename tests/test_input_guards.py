@@ -354,6 +354,10 @@ def test_spectrum_bin_with_min_above_max(tmp_path):
     err = _error(write_modified(tmp_path, TUBULAR, _set(**{"loads.spectrum.0.torque_min_nm":
                                                            2000.0})))
     assert err.path == "loads.spectrum[0].torque_max_nm" and "torque_min_nm" in err.message
+    # a bin without amplitude is no cycle (the fuzz found one giving an infinite safety factor)
+    err = _error(write_modified(tmp_path, TUBULAR, _set(**{"loads.spectrum.2.torque_max_nm":
+                                                           0.0})))
+    assert err.path == "loads.spectrum[2].torque_max_nm" and "amplitude" in err.message
 
 
 @pytest.mark.parametrize("table, ref, where", [

@@ -191,7 +191,7 @@ Rules across keys:
 * plunge limits around the design position (`plunge_min_mm` <= 0 <= `plunge_max_mm`, min
   below max); an
   intermediate `length_mm` inside `length_range_mm`, the bearing offset below the shortest
-  length; `torque_max_nm` not below `torque_min_nm`; `split_mu_high` not below `split_mu_low`;
+  length; `torque_max_nm` above `torque_min_nm`; `split_mu_high` not below `split_mu_low`;
   the yield strength not above the ultimate strength (a shear modulus more than 15 % from
   E / (2 (1 + nu)) gives a notice);
 * a tolerance at most a third of the dimension it varies (smallest diameter, thinnest tube wall,

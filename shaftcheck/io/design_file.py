@@ -394,9 +394,9 @@ def _spectrum(t: Table | None) -> list:
     for b in t.tables("spectrum", "bin", MAX_SPECTRUM_BINS, required=False):
         lo = b.get("torque_min_nm")
         hi = b.get("torque_max_nm")
-        if hi < lo:
-            raise DesignError(b.key("torque_max_nm"), f"= {hi:g} N*m: must not be below "
-                              f"torque_min_nm = {lo:g} N*m")
+        if not hi > lo:
+            raise DesignError(b.key("torque_max_nm"), f"= {hi:g} N*m: must be above "
+                              f"torque_min_nm = {lo:g} N*m (a cycle has an amplitude)")
         bins.append(LoadBin(lo, hi, b.get("cycles")))
         b.done()
     t.done()

@@ -425,7 +425,7 @@ TABLES: tuple[TableSpec, ...] = (
                   _num("torque_min_nm", "N*m", (-20000.0, 20000.0), (-5000.0, 5000.0),
                        "Lower torque of the cycle."),
                   _num("torque_max_nm", "N*m", (-20000.0, 20000.0), (-5000.0, 5000.0),
-                       "Upper torque of the cycle; not below torque_min_nm."),
+                       "Upper torque of the cycle; above torque_min_nm."),
                   _num("cycles", "", (1.0, 1.0e12), (1.0, 1.0e9), "Number of cycles."),
               )),
     TableSpec("tolerances", "[tolerances]", "optional",
