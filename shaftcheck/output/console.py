@@ -93,6 +93,15 @@ def check_legend() -> list[str]:
     ]
 
 
+def _detail(c) -> str | None:
+    """The indented line under a check: its governing location, and, when the check has no
+    value (a refused computation), the reason from its note."""
+    parts = [c.location] if c.location else []
+    if c.value != c.value and c.note:  # NaN: the note says why there is no value
+        parts.append(c.note)
+    return "; ".join(parts) or None
+
+
 def _check_wide(result, title: str) -> None:
     t = Table(title=title, title_justify="left", expand=True)
     t.add_column("check (id, governing location)", ratio=1, overflow="fold")
@@ -103,7 +112,8 @@ def _check_wide(result, title: str) -> None:
         value, limit, unit = check_cells(c)
         u = f" {unit}" if unit else ""
         cell = Text(c.title)
-        cell.append(f"\n{c.id}" + (f": {c.location}" if c.location else ""), style="dim")
+        detail = _detail(c)
+        cell.append(f"\n{c.id}" + (f": {detail}" if detail else ""), style="dim")
         verdict = "met" if c.passed else "NOT MET"
         t.add_row(cell, c.side, value + u, limit + u, fmt_margin(c.margin),
                   Text(verdict, style=VERDICT_STYLE[verdict]))
@@ -119,7 +129,7 @@ def _check_compact(result, title: str) -> None:
         value, limit, unit = check_cells(c)
         rows.append([short_id(c), c.side, value, limit, unit, fmt_margin(c.margin),
                      "met" if c.passed else "NOT MET"])
-        details.append(c.location or None)
+        details.append(_detail(c))
 
     def style(r, i):
         return VERDICT_STYLE[rows[r][6]] if i == 6 else None
