@@ -20,7 +20,8 @@ buckling_safety_min                1.1       EN 1993-1-6 partial factor gamma_M1
 critical_speed_margin_min          1.3       driveline practice: max speed <= 0.7-0.75 of the
                                              first critical speed (from memory and common
                                              practice, docs/methods.md §10.1)
-miner_damage_max                   1.0       Miner's rule, failure at D = 1 (Shigley §6-17)
+miner_damage_max                   1.0       Miner's rule, failure at D = 1 (Shigley 9th ed.,
+                                             cumulative fatigue damage; docs/methods.md §7.4)
 steering_wheel_torque_max_nm       5.0       common practice, not a published limit; the model
                                              has no friction and no power assistance
 steering_wheel_torque_lock_max_nm  5.0       the same basis as steering_wheel_torque_max_nm
