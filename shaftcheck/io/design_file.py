@@ -20,7 +20,7 @@ from shaftcheck.errors import DesignError
 from shaftcheck.io import design_checks as checks
 from shaftcheck.io.criteria_table import read_criteria
 from shaftcheck.io.data_files import load_library_materials, read_material
-from shaftcheck.io.echo import quoted, snippet
+from shaftcheck.io.echo import key_name, quoted, snippet
 from shaftcheck.io.file_access import confined_path, read_limited
 from shaftcheck.io.toml_tables import Table, nearest, parse_toml
 from shaftcheck.methods.sections import Segment
@@ -38,6 +38,7 @@ from shaftcheck.model.design import (  # noqa: F401  (re-exported: the loader's 
     Mounts,
     Powertrain,
     Project,
+    Revision,
     Side,
     Suspension,
     Tolerances,
@@ -49,6 +50,7 @@ from shaftcheck.model.limits import (
     MAX_ID_LENGTH,
     MAX_JOINTS,
     MAX_MATERIALS,
+    MAX_REVISIONS,
     MAX_SEGMENTS,
     MAX_SPECTRUM_BINS,
     MAX_TABLE_FILE_BYTES,
@@ -112,7 +114,7 @@ def design_from_dict(data: dict, path: str = "<memory>", sha256: str = "",
     checks.check_tolerances(tolerances, (left, right))
     return Design(path, sha256, project, vehicle, powertrain, criteria, materials, joints,
                   suspension, left, right, tuple(spectrum), tolerances, torque_steer,
-                  tuple(notices))
+                  tuple(notices), tuple(_flat_inputs(data)))
 
 
 def _ids(t: Table, schema: str, maximum: int):
@@ -129,9 +131,30 @@ def _ids(t: Table, schema: str, maximum: int):
 
 
 def _project(t: Table) -> Project:
-    out = Project(t.get("name"), t.get("revision"), t.get("date"), t.get("author"))
+    revisions = []
+    for r in t.tables("revisions", "revision", MAX_REVISIONS, required=False):
+        revisions.append(Revision(r.get("revision"), r.get("date"), r.get("description")))
+        r.done()
+    out = Project(t.get("name"), t.get("revision"), t.get("date"), t.get("author"),
+                  *(t.get(k) or "" for k in ("document_number", "part_number", "prepared_by",
+                                             "checked_by", "approved_by")),
+                  revisions=tuple(revisions))
     t.done()
     return out
+
+
+def _flat_inputs(data: dict, prefix: str = ""):
+    """(key path, value) of every value in parsed design data, in file order; an array of
+    tables is indexed (``left.segments[1].diameter_mm``), an array of values is one value."""
+    for k, v in data.items():
+        path = f"{prefix}.{key_name(k)}" if prefix else key_name(k)
+        if isinstance(v, dict):
+            yield from _flat_inputs(v, path)
+        elif isinstance(v, list) and v and all(isinstance(x, dict) for x in v):
+            for i, x in enumerate(v):
+                yield from _flat_inputs(x, f"{path}[{i}]")
+        else:
+            yield path, tuple(v) if isinstance(v, list) else v
 
 
 def _vehicle(t: Table) -> Vehicle:

@@ -19,11 +19,30 @@ DIFFERENTIALS = ("open", "limited_slip", "locked")
 
 
 @dataclass(frozen=True)
+class Revision:
+    """One row of the design's revision history (text as written in the design file)."""
+
+    revision: str
+    date: str
+    description: str
+
+
+@dataclass(frozen=True)
 class Project:
+    """Identity of the design: shown on the report; no clock time is read. The release fields
+    (document and part number, who prepared, checked and approved it: "" when not given) and
+    the revision history, oldest first, fill the report's sign-off block."""
+
     name: str
     revision: str
     date: str
     author: str
+    document_number: str = ""
+    part_number: str = ""
+    prepared_by: str = ""
+    checked_by: str = ""
+    approved_by: str = ""
+    revisions: tuple[Revision, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -210,6 +229,9 @@ class Design:
     torque_steer: TorqueSteerInputs = field(default_factory=TorqueSteerInputs)
     #: one line per value the loader accepted outside its typical range (see model.limits)
     notices: tuple[str, ...] = ()
+    #: every value of the design file as written (key path, value in the file's unit), in file
+    #: order; lets two designs be compared input by input (studies.changes)
+    inputs: tuple[tuple[str, object], ...] = ()
 
     def side(self, name: str) -> Side:
         return self.left if name == "left" else self.right

@@ -48,6 +48,12 @@ MAX_ID_LENGTH = 64
 MAX_PATH_LENGTH = 255
 #: characters of what was read that an error message may echo
 MAX_ECHO = 40
+#: entries of the revision history and characters of the sign-off fields (the report's sign-off
+#: block and revision table keep their layout up to these lengths)
+MAX_REVISIONS = 30
+MAX_NUMBER_LENGTH = 60
+MAX_NAME_LENGTH = 80
+MAX_DESCRIPTION_LENGTH = 300
 
 #: The default of a key the file must give.
 REQUIRED = "required"
@@ -138,6 +144,33 @@ TABLES: tuple[TableSpec, ...] = (
                       max_length=40),
                   Key("author", "text", default="-", meaning="Who prepared the design file.",
                       max_length=200),
+                  Key("document_number", "text", default=OPTIONAL, max_length=MAX_NUMBER_LENGTH,
+                      meaning="Document number of the release report (sign-off block).",
+                      note="absent: not shown"),
+                  Key("part_number", "text", default=OPTIONAL, max_length=MAX_NUMBER_LENGTH,
+                      meaning="Part number of the halfshaft assembly (sign-off block).",
+                      note="absent: not shown"),
+                  Key("prepared_by", "text", default=OPTIONAL, max_length=MAX_NAME_LENGTH,
+                      meaning="Name printed in the \"prepared\" row of the sign-off block.",
+                      note="absent: left blank to fill in by hand"),
+                  Key("checked_by", "text", default=OPTIONAL, max_length=MAX_NAME_LENGTH,
+                      meaning="Name printed in the \"checked\" row of the sign-off block.",
+                      note="absent: left blank"),
+                  Key("approved_by", "text", default=OPTIONAL, max_length=MAX_NAME_LENGTH,
+                      meaning="Name printed in the \"approved\" row of the sign-off block.",
+                      note="absent: left blank"),
+                  Key("revisions", "tables", default=OPTIONAL,
+                      meaning=f"Revision history, oldest first (at most {MAX_REVISIONS} "
+                              "entries), printed under the sign-off block.",
+                      note="absent: no history shown"),
+              )),
+    TableSpec("revision", "[[project.revisions]]", f"0 to {MAX_REVISIONS}",
+              "One entry of the revision history.", (
+                  Key("revision", "text", meaning="Revision label (e.g. \"B\").",
+                      max_length=40),
+                  Key("date", "text", meaning="Date of the revision, as text.", max_length=40),
+                  Key("description", "text", meaning="What changed in this revision.",
+                      max_length=MAX_DESCRIPTION_LENGTH),
               )),
     TableSpec("vehicle", "[vehicle]", "required", "The car as the load cases see it.", (
         _num("loaded_radius_mm", "mm", (150.0, 600.0), (250.0, 400.0),
