@@ -177,7 +177,7 @@ def check(design: Path = DesignArg, json_: bool = JsonOpt,
     _within("--travel-points", travel_points)
     _within("--rack-points", rack_points)
     _grid_poses(travel_points, rack_points)
-    from shaftcheck.studies.evaluate import evaluate
+    from shaftcheck.studies.variants import evaluate_variants as evaluate
 
     result = evaluate(_load(design), travel_points=travel_points, rack_points=rack_points,
                       transient=transient)
@@ -440,7 +440,7 @@ def report(design: Path = DesignArg,
     output, added = _output_name(output, ".pdf")
     check_target(output, overwrite=overwrite)
     from shaftcheck.report.document import write_report
-    from shaftcheck.studies.evaluate import evaluate
+    from shaftcheck.studies.variants import evaluate_variants as evaluate
 
     result = evaluate(_load(design), transient=True)
     write_report(result, output, overwrite=overwrite)

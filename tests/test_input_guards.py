@@ -150,6 +150,10 @@ def _every_key(d):
     d["tolerances"]["length_mm"] = 0.5
     d["torque_steer"] = {"split_mu_low": 0.2, "split_mu_high": 1.0, "roll_travel_mm": 30.0,
                          "throttle_rise_ms": 100.0}
+    d["variants"] = [{"name": "v1", "vehicle": {"tyre_mu": 1.0},
+                      "powertrain": {"engine_torque_nm": 250.0},
+                      "loads": {"spectrum": [{"torque_min_nm": 0.0, "torque_max_nm": 500.0,
+                                              "cycles": 1.0e4}]}}]
 
 
 def test_the_loader_reads_every_key_of_the_table(tmp_path, monkeypatch):

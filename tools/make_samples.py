@@ -21,7 +21,7 @@ sys.path.insert(0, str(ROOT))
 import shaftcheck  # noqa: E402
 from shaftcheck.io.design_file import load_design  # noqa: E402
 from shaftcheck.report.document import build_pdf  # noqa: E402
-from shaftcheck.studies.evaluate import evaluate  # noqa: E402
+from shaftcheck.studies.variants import evaluate_variants as evaluate  # noqa: E402
 
 EXAMPLES = Path("example_designs")
 REPORTS = Path("reports")

@@ -43,9 +43,11 @@ from shaftcheck.model.design import (  # noqa: F401  (re-exported: the loader's 
     Suspension,
     Tolerances,
     TorqueSteerInputs,
+    Variant,
     Vehicle,
 )
 from shaftcheck.model.limits import (
+    BASE_VARIANT,
     MAX_DESIGN_FILE_BYTES,
     MAX_ID_LENGTH,
     MAX_JOINTS,
@@ -54,6 +56,9 @@ from shaftcheck.model.limits import (
     MAX_SEGMENTS,
     MAX_SPECTRUM_BINS,
     MAX_TABLE_FILE_BYTES,
+    MAX_VARIANTS,
+    SCHEMA,
+    VARIANT_KEYS,
 )
 from shaftcheck.model.materials import Material
 
@@ -107,6 +112,7 @@ def design_from_dict(data: dict, path: str = "<memory>", sha256: str = "",
     spectrum = _spectrum(root.child("loads", "loads", required=False))
     tolerances = _tolerances(root.child("tolerances", "tolerances", required=False))
     torque_steer = _torque_steer(root.child("torque_steer", "torque_steer", required=False))
+    variants = _variants(root, data)
     root.done()
     if left.intermediate and right.intermediate:
         raise DesignError("left.intermediate", "only one side may have an intermediate shaft")
@@ -114,7 +120,7 @@ def design_from_dict(data: dict, path: str = "<memory>", sha256: str = "",
     checks.check_tolerances(tolerances, (left, right))
     return Design(path, sha256, project, vehicle, powertrain, criteria, materials, joints,
                   suspension, left, right, tuple(spectrum), tolerances, torque_steer,
-                  tuple(notices), tuple(_flat_inputs(data)))
+                  tuple(notices), tuple(_flat_inputs(data)), variants)
 
 
 def _ids(t: Table, schema: str, maximum: int):
@@ -447,3 +453,66 @@ def _torque_steer(t: Table | None) -> TorqueSteerInputs:
                             t.get("throttle_rise_ms") * 1e-3)
     t.done()
     return out
+
+
+# --- variants ----------------------------------------------------------------------------------
+#: tables of the design file a variant cannot change because they are its geometry
+_GEOMETRY_TABLES = ("suspension", "left", "right", "joints", "materials")
+
+
+def _variants(root: Table, data: dict) -> tuple[Variant, ...]:
+    """The [[variants]] entries. Each variant's keys are laid over the base design's [vehicle],
+    [powertrain] and [loads] and read by the same readers (same limits, same unit-slip hints,
+    same cross-key rules); only the keys of VARIANT_KEYS may be changed. Notices of values
+    outside the typical range are kept for the keys the variant gives."""
+    out, names = [], {}
+    for t in root.tables("variants", "variant", MAX_VARIANTS, required=False):
+        name = t.get("name")
+        if not _ID.match(name):
+            raise DesignError(t.key("name"), f"= {quoted(name)}: a variant name is letters, "
+                              "digits, '_' and '-'")
+        if name == BASE_VARIANT:
+            raise DesignError(t.key("name"), f"= {quoted(name)} is the name of the base design; "
+                              "choose another")
+        if name in names:
+            raise DesignError(t.key("name"), f"= {quoted(name)} is already the name of "
+                              f"{names[name]}; variant names are unique")
+        names[name] = t.path
+        for key in t.data:
+            if key == "name" or key in VARIANT_KEYS:
+                continue
+            what = ("geometry (suspension, sides, joints, materials)"
+                    if key in _GEOMETRY_TABLES else f"[{key}]" if key in data else None)
+            if what is None:
+                raise DesignError(t.key(key), f"unknown key{nearest(key, ('name', *VARIANT_KEYS))}")
+            raise DesignError(t.key(key), f"{what} is the same for every variant; a variant "
+                              "changes only keys of [vehicle], [powertrain] and [loads]")
+        read, changes = {}, []
+        for table, allowed in VARIANT_KEYS.items():
+            sub = t.child(table, table, required=False)
+            given = {} if sub is None else sub.data
+            for key in given:
+                if key not in allowed:
+                    known = key in (data.get(table) or {}) or key in {
+                        k.name for k in SCHEMA[table].keys} or key == "mounts"
+                    raise DesignError(sub.key(key), (
+                        f"{table}.{key} is the same for every variant; a variant may change "
+                        if known else f"unknown key{nearest(key, allowed)}; a variant may "
+                        "change ") + f"only {', '.join(allowed)} of [{table}]")
+            merged = {**(data.get(table) or {}), **given}
+            if table == "powertrain" and "differential" in given \
+                    and "torque_bias_ratio" not in given:
+                merged.pop("torque_bias_ratio", None)
+            scratch: list[str] = []
+            reader = Table(merged, sub.path if sub is not None else t.key(table), table, scratch)
+            read[table] = {"vehicle": _vehicle, "powertrain": _powertrain,
+                           "loads": _spectrum}[table](reader)
+            for key, value in given.items():
+                path = reader.key(key)
+                root.notices.extend(n for n in scratch if n.startswith((path + " ", path + "[")))
+                changes.append(f"{table}.{key} = " + (
+                    f"{len(value)} bins" if key == "spectrum" and isinstance(value, list)
+                    else quoted(value) if isinstance(value, str) else f"{value:g}"))
+        out.append(Variant(name, read["vehicle"], read["powertrain"], tuple(read["loads"]),
+                           tuple(changes)))
+    return tuple(out)

@@ -212,6 +212,19 @@ class TorqueSteerInputs:
 
 
 @dataclass(frozen=True)
+class Variant:
+    """One [[variants]] entry: its name, the vehicle, powertrain and duty cycle it runs with
+    (the base design's where it changes nothing) and what it changes, as "table.key = value"
+    text in the file's units. Geometry is never part of a variant."""
+
+    name: str
+    vehicle: Vehicle
+    powertrain: Powertrain
+    spectrum: tuple
+    changes: tuple[str, ...] = ()
+
+
+@dataclass(frozen=True)
 class Design:
     path: str
     sha256: str
@@ -232,6 +245,8 @@ class Design:
     #: every value of the design file as written (key path, value in the file's unit), in file
     #: order; lets two designs be compared input by input (studies.changes)
     inputs: tuple[tuple[str, object], ...] = ()
+    #: the [[variants]] of the vehicle line (empty: the base design alone)
+    variants: tuple[Variant, ...] = ()
 
     def side(self, name: str) -> Side:
         return self.left if name == "left" else self.right

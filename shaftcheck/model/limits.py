@@ -41,6 +41,9 @@ MAX_SPECTRUM_BINS = 5_000
 #: joint definitions and design materials
 MAX_JOINTS = 20
 MAX_MATERIALS = 50
+#: variants of one design ([[variants]]) and the characters of a variant's name
+MAX_VARIANTS = 32
+MAX_VARIANT_NAME = 24
 #: nesting of tables and arrays (the format needs 5)
 MAX_NESTING = 8
 #: characters of an id (joint, material) and of a table file name
@@ -124,6 +127,25 @@ def _num(name, unit, plausible, typical, meaning, default=REQUIRED, **kw) -> Key
     return Key(name, "number", unit, default, plausible, typical, meaning, **kw)
 
 
+#: the name of the base design among the checked variants (no [[variants]] entry may take it)
+BASE_VARIANT = "base"
+#: keys a [[variants]] entry may change, per table. Everything else (corner, sides, joints,
+#: materials, powertrain mounts, criteria, tolerances, torque-steer conditions) is the same for
+#: every variant: the geometry is solved once for all of them.
+VARIANT_KEYS: dict[str, tuple[str, ...]] = {
+    "vehicle": ("loaded_radius_mm", "front_axle_load_n", "tyre_mu", "max_speed_kmh",
+                "rack_travel_per_rev_mm", "mass_kg", "wheel_inertia_kg_m2",
+                "tyre_slip_stiffness_n", "tyre_relaxation_length_mm"),
+    "powertrain": ("engine_torque_nm", "first_gear_ratio", "final_drive_ratio", "efficiency",
+                   "differential", "torque_bias_ratio", "dynamic_factor"),
+    "loads": ("spectrum",),
+}
+VARIANT_NOTES = {
+    "vehicle": "absent: the base [vehicle]",
+    "powertrain": "absent: the base [powertrain]; a new differential drops the base's "
+                  "torque_bias_ratio",
+    "loads": "absent: the base duty cycle; a spectrum given replaces all base bins",
+}
 _POINT = (-3000.0, 3000.0)
 _SEGMENT_DIAMETER = dict(plausible=(5.0, 200.0), typical=(15.0, 80.0))
 _CRIT = Criteria()
@@ -485,6 +507,21 @@ TABLES: tuple[TableSpec, ...] = (
                   _num("throttle_rise_ms", "ms", (0.0, 10000.0), (0.0, 2000.0),
                        "Rise time of the throttle step in the transient model; 0 = step.",
                        default=0.0),
+              )),
+    TableSpec("variant", "[[variants]]", f"0 to {MAX_VARIANTS}",
+              "A variant of the vehicle line released with the same halfshafts (another "
+              "engine, gearbox, tyre or axle load). It changes only keys of [vehicle], "
+              "[powertrain] and [loads] named below; every other key keeps the base design's "
+              "value. Each key is read and checked exactly as in its own table. The base design "
+              "and every variant are checked; the geometry is the same for all of them.", (
+                  Key("name", "text", meaning="Short name of the variant, unique, letters, "
+                      f"digits, '_' and '-' (not \"{BASE_VARIANT}\", the name of the base "
+                      "design).", max_length=MAX_VARIANT_NAME),
+                  *(Key(table, "table", default=OPTIONAL,
+                        meaning=f"Keys of [{table}] this variant changes: "
+                                + ", ".join(f"`{k}`" for k in keys) + ".",
+                        note=VARIANT_NOTES[table])
+                    for table, keys in VARIANT_KEYS.items()),
               )),
 )
 

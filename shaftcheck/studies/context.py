@@ -220,3 +220,22 @@ class Context:
             out[name] = DesignGeometry(I, d, O, W, b, float(bi), float(bo), float(L),
                                        np.asarray(axis))
         return out
+
+    # --- variants ---------------------------------------------------------------------------------
+    #: what depends on the geometry alone (corner, sides, joints, criteria), not on [vehicle],
+    #: [powertrain] or [loads]: a variant's context shares it (:meth:`derive`)
+    GEOMETRY_VALUES = ("travel", "rack", "roll", "torque_steer_travel", "torque_steer_rack",
+                       "_union", "stiffness", "mismatch_pct", "bearings", "design_geometry")
+
+    def derive(self, design) -> Context:
+        """A context for ``design``, a variant of this context's design that differs only in
+        [vehicle], [powertrain] and [loads] (model.limits.VARIANT_KEYS): it shares the corner
+        poses and every geometry value (computed here first, once); its load cases are its own.
+        Its ``corner_solves`` counts only solves it makes itself (none on the shared grids)."""
+        new = Context(design, travel_points=self.travel_points, rack_points=self.rack_points)
+        for name in self.GEOMETRY_VALUES:
+            new.__dict__[name] = getattr(self, name)
+        for side in SIDES:
+            self.poses(side)
+        new._poses = self._poses
+        return new

@@ -30,6 +30,8 @@ class Check:
     location: str = ""
     reference: str = "practice"
     note: str = ""
+    #: the variant this row is the worst of (a design with [[variants]]); "" otherwise
+    variant: str = ""
 
     @property
     def passed(self) -> bool:
@@ -48,6 +50,7 @@ class Check:
 
     def to_dict(self) -> dict:
         return {
+            **({"variant": self.variant} if self.variant else {}),
             "id": self.id,
             "title": self.title,
             "side": self.side,
@@ -90,6 +93,10 @@ class Result:
     strength: Any  # StrengthResult
     torque_steer: Any  # TorqueSteerResult
     transient: Any = None  # TransientResult | None
+    #: VariantsResult of a design with [[variants]] (studies.variants); None otherwise. Then
+    #: ``checks`` hold the worst row of each check over all variants and the study results are
+    #: the governing variant's.
+    variants: Any = None
 
     @property
     def verdict(self) -> str:
@@ -129,6 +136,9 @@ class Result:
         out["torque_steer"] = self.torque_steer.to_dict()
         if self.transient is not None:
             out["torque_steer"]["transient"] = self.transient.to_dict()
+        if self.variants is not None:
+            out["governing_variant"] = self.variants.governing
+            out["variants"] = self.variants.to_dict()
         return jsonable(out)
 
 
