@@ -23,6 +23,7 @@ from shaftcheck.report.blocks import Heading
 from shaftcheck.report.geometry import geometry
 from shaftcheck.report.inputs import inputs
 from shaftcheck.report.methods import cautions, methods
+from shaftcheck.report.signoff import signoff
 from shaftcheck.report.stiffness import stiffness
 from shaftcheck.report.strength import strength
 from shaftcheck.report.summary import summary
@@ -106,9 +107,15 @@ class _ReportTemplate(SimpleDocTemplate):
                                       closed=False)
 
 
-def story(result) -> list:
-    """All flowables of the report, summary first; every page renders from ``result``."""
-    out = summary(result)
+def story(result, changes=None) -> list:
+    """All flowables of the report, summary first, then the release record (sign-off) and, when
+    ``changes`` (studies.changes.Changes) is given, the changes since the earlier revision;
+    every page renders from ``result``."""
+    out = summary(result) + signoff(result)
+    if changes is not None:
+        from shaftcheck.report.changes import changes_section
+
+        out += changes_section(changes)
     for part in (stiffness, geometry, strength, torque_steer, inputs, methods, cautions):
         out += _page(part, result)
     return out
@@ -123,8 +130,10 @@ def _page(part, result) -> list:
     return part(result, result.to_dict())
 
 
-def build_pdf(result) -> bytes:
-    """The release report of ``result`` as PDF bytes (A4 portrait, reproducible)."""
+def build_pdf(result, changes=None) -> bytes:
+    """The release report of ``result`` as PDF bytes (A4 portrait, reproducible); with
+    ``changes`` (:class:`~shaftcheck.studies.changes.Changes` against an earlier revision) it
+    carries a "Changes since revision X" section."""
     p = result.design.project
     name, rev = st.clean(p.name), st.clean(p.revision)
     buf = io.BytesIO()
@@ -134,12 +143,12 @@ def build_pdf(result) -> bytes:
         title=f"{name} - rev {rev} - halfshaft release report", author=st.clean(p.author),
         subject="front halfshaft release report", creator="shaftcheck")
     sha = result.design.sha256 or "-"
-    doc.build(story(result), canvasmaker=_footer_canvas(
+    doc.build(story(result, changes), canvasmaker=_footer_canvas(
         f"{name} - rev {rev} - {st.clean(p.date)}", sha[:12]))
     return buf.getvalue()
 
 
-def write_report(result, path, *, overwrite: bool = False) -> Path:
+def write_report(result, path, *, overwrite: bool = False, changes=None) -> Path:
     """Write the report of ``result`` to ``path`` [PDF] atomically; returns the path.
 
     Raises :class:`~shaftcheck.output.files.OutputExistsError` when ``path`` exists and
@@ -149,4 +158,4 @@ def write_report(result, path, *, overwrite: bool = False) -> Path:
     A failure while building or writing leaves neither the target nor a temporary file behind.
     """
     check_target(path, overwrite=overwrite)
-    return write_bytes_atomic(path, build_pdf(result), overwrite=overwrite)
+    return write_bytes_atomic(path, build_pdf(result, changes), overwrite=overwrite)

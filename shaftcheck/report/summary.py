@@ -10,6 +10,7 @@ from reportlab.platypus import Paragraph
 from shaftcheck.output.cautions import CAUTION_LINE
 from shaftcheck.report import styles as st
 from shaftcheck.report.blocks import bullets, gap, para, section, text
+from shaftcheck.report.signoff import identity_rows
 from shaftcheck.report.tables import boxed, data_table, key_value_table
 from shaftcheck.units import NMRAD_TO_NMDEG
 
@@ -18,7 +19,7 @@ def title_block(result) -> list:
     from shaftcheck import __version__
 
     d, p = result.design, result.design.project
-    rows = [("Revision", st.esc(p.revision)), ("Date", st.esc(p.date)),
+    rows = identity_rows(p) + [("Revision", st.esc(p.revision)), ("Date", st.esc(p.date)),
             ("Author", st.esc(p.author)), ("Design file", st.esc(PurePath(d.path).name)),
             ("Design file SHA-256", f'<font face="Courier" size="7.2">{st.esc(d.sha256)}'
                                     "</font>"),
