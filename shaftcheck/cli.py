@@ -163,6 +163,19 @@ def _load(path: Path):
     return load_design(path, tables_from=_TABLES_FROM[0] if _TABLES_FROM else None)
 
 
+def _load_named(path: Path):
+    """:func:`_load` whose errors name the file (a command that reads two design files)."""
+    from shaftcheck.errors import DesignError
+
+    try:
+        return _load(path)
+    except DesignError as exc:
+        if str(exc).startswith(str(path)):
+            raise
+        raise DesignError(f"{path}: {exc.path}" if exc.path else str(path), exc.message) \
+            from None
+
+
 @app.command()
 @guarded
 def check(design: Path = DesignArg, json_: bool = JsonOpt,
@@ -429,7 +442,10 @@ def tolerance(design: Path = DesignArg,
 def report(design: Path = DesignArg,
            output: str = typer.Option(..., "-o", "--output",
                                       help="PDF file to write (.pdf is added when missing)."),
-           overwrite: bool = typer.Option(False, help="Replace an existing file.")):
+           overwrite: bool = typer.Option(False, help="Replace an existing file."),
+           previous: Path | None = typer.Option(
+               None, "--previous", help="Design file of an earlier revision: the report gets a "
+               "'Changes since revision X' section (as shaftcheck diff).")):
     """Write the PDF release report (atomic; never replaces a file unless --overwrite).
 
     Exit 0 written and all checks met, 1 written with failed checks, 2 bad input.
@@ -442,8 +458,15 @@ def report(design: Path = DesignArg,
     from shaftcheck.report.document import write_report
     from shaftcheck.studies.variants import evaluate_variants as evaluate
 
-    result = evaluate(_load(design), transient=True)
-    write_report(result, output, overwrite=overwrite)
+    d = _load_named(design) if previous else _load(design)
+    old = _load_named(previous) if previous else None  # bad input fails before any work
+    result = evaluate(d, transient=True)
+    changes = None
+    if old is not None:
+        from shaftcheck.studies.changes import changes_between
+
+        changes = changes_between(old, d, new_result=result, evaluator=evaluate, transient=True)
+    write_report(result, output, overwrite=overwrite, changes=changes)
     verdict = "all checks met" if result.verdict == "pass" else \
         f"{len(result.failed)} check(s) NOT met"
     typer.echo(f"wrote {shown(output)}{' (.pdf added to the name given)' if added else ''}: "
@@ -452,6 +475,32 @@ def report(design: Path = DesignArg,
 
     print_caution()
     raise typer.Exit(0 if result.verdict == "pass" else 1)
+
+
+@app.command()
+@guarded
+def diff(old: Path = typer.Argument(..., help="Design file of the earlier revision.",
+                                    show_default=False),
+         new: Path = typer.Argument(..., help="Design file of the new revision.",
+                                    show_default=False),
+         json_: bool = JsonOpt):
+    """Inputs that changed between two design files and the checks they moved.
+
+    Exit 0 when no check is newly not met, 1 when some check is newly not met (or is new in NEW
+    and not met), 2 on bad input.
+    Example: shaftcheck diff old.toml example_designs/wren_tubular.toml
+    """
+    from shaftcheck.studies.changes import changes_between
+    from shaftcheck.studies.variants import evaluate_variants
+
+    changes = changes_between(_load_named(old), _load_named(new), evaluator=evaluate_variants)
+    if json_:
+        _print_json(changes.to_dict())
+    else:
+        from shaftcheck.output.diff_table import print_diff
+
+        print_diff(changes)
+    raise typer.Exit(1 if changes.worse else 0)
 
 
 @app.command()

@@ -44,6 +44,7 @@ RUNS = [
     ("materials", ["materials"], (0,), False),
     ("new", ["new", "x.toml"], (0,), False),
     ("report", ["report", TUBULAR, "-o", "r.pdf"], (0, 1), True),
+    ("diff", ["diff", INTERMEDIATE, TUBULAR], (0, 1), True),
 ]
 
 
