@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from shaftcheck.output.numbers import resolution
 from shaftcheck.report import styles as st
 from shaftcheck.report.blocks import caption, gap, intro, section, sub
 from shaftcheck.report.charts import DASHED, DOTTED, Series, line_chart
@@ -45,7 +46,7 @@ def _angle_chart(sw: dict) -> list:
     return [line_chart(series, width_mm=170, height_mm=50, xlabel="wheel travel [mm] "
                        "(positive = bump)", ylabel="joint angle [deg]",
                        title="Joint angles over wheel travel, rack centred",
-                       xrange=(t[0], t[-1])),
+                       xrange=(t[0], t[-1]), resolution=resolution("deg"), unit="deg"),
             caption("Inboard (solid) and outboard (dashed) joint angles of both sides. The "
                     "steer-lock extremes are in the table below.")]
 
@@ -67,11 +68,11 @@ def _plunge_chart(sw: dict, geo) -> list:
         tag = "" if len(limits) == 1 else f" ({k + 1})"
         for v, what in ((lo, "min"), (hi, "max")):
             series.append(Series(f"joint plunge {what}{tag}", [(t[0], v), (t[-1], v)],
-                                 st.FAIL, dash=DOTTED, width=0.9))
+                                 st.FAIL, dash=DOTTED, width=0.9, reference=True))
     return [line_chart(series, width_mm=170, height_mm=50, xlabel="wheel travel [mm] "
                        "(positive = bump)", ylabel="plunge [mm] (positive = extension)",
                        title="Plunge of the inboard joint over wheel travel",
-                       xrange=(t[0], t[-1])),
+                       xrange=(t[0], t[-1]), resolution=resolution("mm"), unit="mm"),
             caption("Plunge is the change of the joint-centre distance from the design "
                     "position, at rack centred and at both rack ends; red dotted lines are the "
                     "inboard joints' plunge range.")]

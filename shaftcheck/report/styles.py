@@ -31,6 +31,7 @@ ZEBRA = colors.HexColor("#f5f8f9")
 CAUTION_BG = colors.HexColor("#fbf3e1")
 PASS_BG = colors.HexColor("#e6f2ea")
 FAIL_BG = colors.HexColor("#f8e3e1")
+WHITE = colors.white
 
 SIDE_COLOURS = {"left": TEAL, "right": OCHRE, "intermediate": PLUM}
 PASS_HEX, FAIL_HEX, MUTED_HEX = "#2f7d4a", "#b5302a", "#5f6b75"

@@ -59,8 +59,9 @@ def _budget(ts) -> list:
 
 def _limit_series(x, limit: float) -> list:
     return [Series(f"+/- {limit:g} N*m limit", [(x[0], limit), (x[-1], limit)], st.FAIL,
-                   dash=DOTTED, width=0.9),
-            Series("", [(x[0], -limit), (x[-1], -limit)], st.FAIL, dash=DOTTED, width=0.9)]
+                   dash=DOTTED, width=0.9, reference=True),
+            Series("", [(x[0], -limit), (x[-1], -limit)], st.FAIL, dash=DOTTED, width=0.9,
+                   reference=True)]
 
 
 def _curve_chart(curve, limit: float, xlabel: str, title: str):
@@ -68,7 +69,8 @@ def _curve_chart(curve, limit: float, xlabel: str, title: str):
     series = [Series("steering-wheel torque", _xy(x, curve.steering_wheel_torque), st.TEAL),
               *_limit_series(x, limit)]
     return line_chart(series, width_mm=84, height_mm=48, xlabel=xlabel,
-                      ylabel="steering-wheel torque [N*m]", title=title, xrange=(x[0], x[-1]))
+                      ylabel="steering-wheel torque [N*m]", title=title, xrange=(x[0], x[-1]),
+                      resolution=RESOLUTION_NM, unit="N*m")
 
 
 def _map_chart(ts, limit: float):
@@ -84,7 +86,7 @@ def _map_chart(ts, limit: float):
                       xlabel="wheel travel, both wheels [mm]",
                       ylabel="steering-wheel torque [N*m]",
                       title="Throttle map over heave (drive torque per side)",
-                      xrange=(x[0], x[-1]))
+                      xrange=(x[0], x[-1]), resolution=RESOLUTION_NM, unit="N*m")
 
 
 def _charts(ts) -> list:
@@ -167,18 +169,16 @@ def _transient(tr) -> list:
     end = f"{tr.end_time * st.MS:.0f} ms"
     torques = [Series("left wheel torque", _xy(t, tr.torque_left), st.TEAL),
                Series("right wheel torque", _xy(t, tr.torque_right), st.OCHRE, dash=(4, 2.5))]
-    c1 = line_chart(torques, width_mm=84, height_mm=48, xlabel=f"time [ms], 0 to {end}",
-                    ylabel="halfshaft torque [N*m]", title="Wheel torques after the step",
-                    xrange=(t[0], t[-1]))
+    c1 = line_chart(torques, width_mm=84, height_mm=48, xlabel="time after the step [ms]",
+                    ylabel="halfshaft torque [N*m]",
+                    title=f"Wheel torques after the step (0 to {end})", xrange=(t[0], t[-1]),
+                    resolution=RESOLUTION_NM, unit="N*m")
     sw, t_sw = tr.peak(tr.steering_wheel_torque)
-    if abs(sw) < RESOLUTION_NM:
-        c2 = para(f"The steering-wheel torque stays below {RESOLUTION_NM:g} N*m over the "
-                  f"{end} (numerical noise of a symmetric layout): not plotted.", st.SMALL)
-    else:
-        pull = [Series("steering-wheel torque", _xy(t, tr.steering_wheel_torque), st.PLUM)]
-        c2 = line_chart(pull, width_mm=84, height_mm=48, xlabel=f"time [ms], 0 to {end}",
-                        ylabel="steering-wheel torque [N*m]", title="Pull after the step",
-                        xrange=(t[0], t[-1]))
+    pull = [Series("steering-wheel torque", _xy(t, tr.steering_wheel_torque), st.PLUM)]
+    c2 = line_chart(pull, width_mm=84, height_mm=48, xlabel="time after the step [ms]",
+                    ylabel="steering-wheel torque [N*m]",
+                    title=f"Steering-wheel torque (0 to {end})", xrange=(t[0], t[-1]),
+                    resolution=RESOLUTION_NM, unit="N*m")
     diff, t_diff = tr.peak(tr.torque_difference)
     out = sub("Transient after a throttle step")
     out.append(text(f"Input: {tr.input_text}; differential: {tr.differential}; simulated for "
