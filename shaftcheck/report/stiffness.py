@@ -17,6 +17,43 @@ def _mismatch_check(result):
     return next((c for c in result.checks if c.id == "stiffness_mismatch"), None)
 
 
+def _joint_text(e) -> str:
+    kind = e.label.split("(", 1)[-1].rstrip(")") if "(" in e.label else e.label
+    return f"{kind}, rigid" if not math.isfinite(e.stiffness) else kind
+
+
+def _whole_side_text(result, name: str) -> str:
+    """What the whole-side stiffness of one side holds, inboard to outboard."""
+    elements = result.sides[name].stiffness.elements
+    parts = []
+    n_inter = sum(1 for e in elements if e.part == "intermediate")
+    if n_inter:
+        parts.append(f"intermediate shaft ({n_inter} segment{'s' if n_inter > 1 else ''})")
+    joints = [e for e in elements if e.part == "joint"]
+    n_bar = sum(1 for e in elements if e.part == "shaft")
+    if joints:
+        parts.append(f"inboard joint ({_joint_text(joints[0])})")
+    parts.append(f"halfshaft bar ({n_bar} segment{'s' if n_bar > 1 else ''})")
+    if len(joints) > 1:
+        parts.append(f"outboard joint ({_joint_text(joints[-1])})")
+    return " + ".join(parts)
+
+
+def _columns_note(result) -> str:
+    """What each column includes, side by side (the intermediate shaft is never in "bar
+    only")."""
+    whole = "; ".join(f"{n}: {_whole_side_text(result, n)}" for n in SIDES)
+    inter = [n for n in SIDES if any(e.part == "intermediate"
+                                     for e in result.sides[n].stiffness.elements)]
+    bar = ("Halfshaft bar only: the segments between the two joint centres, without the "
+           "joints" + (f" and without the {inter[0]} side's intermediate shaft" if inter
+                       else "") + ".")
+    mass = ("Mass of the shafts: halfshaft bar" +
+            (" plus intermediate shaft where there is one" if inter else "") +
+            ", joints not included.")
+    return f"Whole side, in series: {whole}. {bar} {mass}"
+
+
 def _stiffness_table(result) -> list:
     rows = []
     for name in SIDES:
@@ -26,9 +63,11 @@ def _stiffness_table(result) -> list:
                      st.fixed(s.twist_at_design_torque * RAD2DEG, 2),
                      st.num(s.design_torque, 4), st.fixed(s.mass, 2)])
     check = _mismatch_check(result)
-    out = [data_table(["Side", "Stiffness, whole side [N*m/deg]", "Shafts only [N*m/deg]",
-                       "Twist at design torque [deg]", "Design torque [N*m]", "Shaft mass [kg]"],
+    out = [data_table(["Side", "Stiffness, whole side [N*m/deg]",
+                       "Halfshaft bar only [N*m/deg]", "Twist at design torque [deg]",
+                       "Design torque [N*m]", "Mass of the shafts [kg]"],
                       rows, [20, 34, 30, 32, 28, 26], right=(1, 2, 3, 4, 5))]
+    out.append(caption(_columns_note(result)))
     verdict = st.met(check.passed) if check else "-"
     where = check.location if check else "whole sides"
     out.append(gap(1.5))
