@@ -95,8 +95,10 @@ def check_legend() -> list[str]:
 
 def _detail(c) -> str | None:
     """The indented line under a check: its governing location, and, when the check has no
-    value (a refused computation), the reason from its note."""
-    parts = [c.location] if c.location else []
+    value (a refused computation), the reason from its note; first its governing variant
+    when the design has [[variants]]."""
+    parts = [f"variant {c.variant}"] if getattr(c, "variant", "") else []
+    parts += [c.location] if c.location else []
     if c.value != c.value and c.note:  # NaN: the note says why there is no value
         parts.append(c.note)
     return "; ".join(parts) or None
@@ -156,6 +158,8 @@ def print_check(result) -> None:
                f"{s.right.stiffness.whole * NMRAD_TO_NMDEG:.1f} N*m/deg, mismatch "
                f"{fmt_number(s.mismatch_pct, '%')} % of the mean; design torque "
                f"{s.left.design_torque:.0f} N*m per side")
+    if getattr(result, "variants", None) is not None:
+        print_variants(result.variants)
     for n in result.notices:
         print_text(console, f"note: {n}")
     failed = result.failed
@@ -165,6 +169,29 @@ def print_check(result) -> None:
         print_text(console, f"VERDICT: {len(failed)} of {len(result.checks)} checks NOT met: "
                    + ", ".join(c.id for c in failed), style="bold red")
     print_caution()
+
+
+def print_variants(v) -> None:
+    """One line per case of a vehicle line (base design and [[variants]]): verdict, failed
+    checks, its worst check and margin; then which case the summary figures belong to."""
+    print_lines(console, [""])
+    rows = []
+    for case in v.cases:
+        w = case.worst
+        failed = sum(not c.passed for c in case.checks)
+        rows.append([case.name, "met" if case.verdict == "pass" else "NOT MET",
+                     str(failed), short_id(w) + (f" {w.side}" if w.side in ("left", "right")
+                                                 else "") if w else "-",
+                     fmt_margin(w.margin) if w else "-"])
+
+    def style(r, i):
+        return VERDICT_STYLE[rows[r][1]] if i == 1 else None
+
+    print_table(console, f"variants: each check above is the worst of these {len(rows)}",
+                [Col("variant", key=True), Col("verdict"), Col("failed", "right"),
+                 Col("worst check"), Col("margin", "right")], rows, style=style)
+    print_text(console, f"governing variant (smallest margin of all): {v.governing}; the "
+               "stiffness line and design torque above are its figures")
 
 
 # --- materials -------------------------------------------------------------------------------
