@@ -158,9 +158,17 @@ def _print_json(data) -> None:
 
 
 def _load(path: Path):
+    from shaftcheck.errors import DesignError
     from shaftcheck.io.design_file import load_design
+    from shaftcheck.io.file_access import TABLES_FROM_HINT
 
-    return load_design(path, tables_from=_TABLES_FROM[0] if _TABLES_FROM else None)
+    try:
+        return load_design(path, tables_from=_TABLES_FROM[0] if _TABLES_FROM else None)
+    except DesignError as exc:  # the library's hint, in the command line's words
+        if TABLES_FROM_HINT not in exc.message:
+            raise
+        raise DesignError(exc.path, exc.message.replace(
+            TABLES_FROM_HINT, "or pass --tables-from DIR to allow another folder")) from None
 
 
 def _load_named(path: Path):

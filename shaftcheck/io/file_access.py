@@ -69,6 +69,11 @@ def read_limited(path: Path, limit: int, key: str, what: str) -> bytes:
     return b"".join(chunks)
 
 
+#: how the library lets a table file come from another folder; the command line replaces this
+#: text in the error with its own option
+TABLES_FROM_HINT = "or allow another folder with load_design(..., tables_from=DIR)"
+
+
 def confined_path(name: str, base_dir: Path, key: str,
                   allowed: tuple[Path, ...] = ()) -> Path:
     """The file ``name`` (relative to ``base_dir``) after checking it stays where it may.
@@ -85,5 +90,4 @@ def confined_path(name: str, base_dir: Path, key: str,
         if target == root or root in target.parents:
             return target
     raise DesignError(key, f"= '{snippet(name)}' lies outside the design file's folder; a table "
-                      "file must be in that folder (or pass --tables-from DIR to allow "
-                      "another folder)")
+                      f"file must be in that folder ({TABLES_FROM_HINT})")

@@ -268,12 +268,13 @@ def check_segment(side, index: int | None) -> int:
     if index is None:
         return default_segment(side)
     if not 0 <= index < len(side.segments):
-        raise ShaftcheckError(f"--segment {index}: the {side.name} side has segments 0.."
+        raise ShaftcheckError(f"{side.name}.segments[{index}]: no such segment; the "
+                              f"{side.name} side has segments 0.."
                               f"{len(side.segments) - 1}")
     kind = side.segments[index].kind
     if kind not in KINDS:
         raise ShaftcheckError(f"{side.name}.segments[{index}] is a {kind}: only a solid or tube "
-                              "segment is resized (choose another with --segment)")
+                              "segment is resized (choose another segment)")
     return index
 
 
@@ -298,7 +299,7 @@ def propose_sizes(design, side_name: str, *, segment: int | None = None,
     seg = side.segments[index]
     kind = seg.kind if kind is None else kind
     if kind not in KINDS:
-        raise ShaftcheckError(f"--kind = {kind!r}: must be solid or tube")
+        raise ShaftcheckError(f"kind = {kind!r}: must be solid or tube")
     J, k_target, k_now = required_polar_moment(design, side_name, index)
     torque = load_cases(design)["design"]
     if wall is None:

@@ -236,7 +236,7 @@ def propose_pair(design, *, kind: str | None = None, wall: float | None = None) 
     from shaftcheck.studies.context import Context
 
     if kind is not None and kind not in KINDS:
-        raise ShaftcheckError(f"--kind = {kind!r}: must be solid or tube")
+        raise ShaftcheckError(f"kind = {kind!r}: must be solid or tube")
     plan = {}
     for n in SIDES:
         side = design.side(n)
