@@ -28,6 +28,7 @@ from shaftcheck.report.stiffness import stiffness
 from shaftcheck.report.strength import strength
 from shaftcheck.report.summary import summary
 from shaftcheck.report.torque import torque_steer
+from shaftcheck.report.variants import variants
 
 FOOT_SIZE = 7.0
 
@@ -111,7 +112,7 @@ def story(result, changes=None) -> list:
     """All flowables of the report, summary first, then the release record (sign-off) and, when
     ``changes`` (studies.changes.Changes) is given, the changes since the earlier revision;
     every page renders from ``result``."""
-    out = summary(result) + signoff(result)
+    out = summary(result) + variants(result) + signoff(result)
     if changes is not None:
         from shaftcheck.report.changes import changes_section
 

@@ -82,8 +82,10 @@ def _margin(c) -> str:
 def checks_table(result) -> list:
     rows, bad = [], []
     for i, c in enumerate(result.checks):
-        where = f'<br/><font color="{st.MUTED_HEX}" size="6.8">{st.esc(c.location)}</font>' \
-            if c.location else ""
+        place = "; ".join(x for x in (f"variant {c.variant}" if c.variant else "", c.location)
+                          if x)
+        where = f'<br/><font color="{st.MUTED_HEX}" size="6.8">{st.esc(place)}</font>' \
+            if place else ""
         note = f'<br/><font color="{st.MUTED_HEX}" size="6.8">note: {st.esc(c.note)}</font>' \
             if c.note else ""
         rows.append([f"{st.esc(c.title)}{where}{note}", st.esc(c.side), _value(c),
