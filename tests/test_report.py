@@ -142,7 +142,7 @@ def test_overwrite_is_refused_and_the_old_file_kept(results, tmp_path):
 
 
 def test_failure_while_building_leaves_no_file(results, tmp_path, monkeypatch):
-    def boom(result):
+    def boom(result, changes=None):
         raise RuntimeError("interrupted while building")
 
     monkeypatch.setattr(document, "build_pdf", boom)
