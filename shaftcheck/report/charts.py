@@ -314,16 +314,26 @@ def line_chart(series: list, *, width_mm: float, height_mm: float, xlabel: str, 
     ytexts = [tick_text(v, ydec) for v in yticks]
     left = max(44.0, 16.0 + max(stringWidth(t, FONT, TICK_SIZE) for t in ytexts)
                + TICK_LEN + TICK_GAP + 4)
-    pw = W - left - right
-    if xlog:
-        xlo, xhi = xrange if xrange is not None else _data_range(series, 0, True)
-        xmin, xmax = (xlo, xhi) if xrange is not None else (
-            10.0 ** math.floor(math.log10(xlo)), 10.0 ** math.ceil(math.log10(xhi)))
-        xticks = log_ticks(xmin, xmax, pw)
-    else:
-        xlo, xhi = xrange if xrange is not None else _data_range(series, 0, False)
-        xmin, xmax, xticks, xdec = linear_ticks(xlo, xhi, pw, horizontal=True,
-                                                fixed=xrange is not None)
+    for _ in range(3):  # the last x label may need a wider right margin: lay out again
+        pw = W - left - right
+        if xlog:
+            xlo, xhi = xrange if xrange is not None else _data_range(series, 0, True)
+            xmin, xmax = (xlo, xhi) if xrange is not None else (
+                10.0 ** math.floor(math.log10(xlo)), 10.0 ** math.ceil(math.log10(xhi)))
+            xticks, xdec = log_ticks(xmin, xmax, pw), 0
+            half = _power_width(round(math.log10(xticks[-1]))) / 2 if xticks else 0.0
+            last = math.log10(xticks[-1]) if xticks else 0.0
+            overhang = half - (math.log10(xmax) - last) / (
+                math.log10(xmax) - math.log10(xmin)) * pw
+        else:
+            xlo, xhi = xrange if xrange is not None else _data_range(series, 0, False)
+            xmin, xmax, xticks, xdec = linear_ticks(xlo, xhi, pw, horizontal=True,
+                                                    fixed=xrange is not None)
+            overhang = (stringWidth(tick_text(xticks[-1], xdec), FONT, TICK_SIZE) / 2
+                        - (xmax - xticks[-1]) / (xmax - xmin) * pw)
+        if overhang <= right - 2:
+            break
+        right = overhang + 2
 
     legend = _legend_rows(series, W - left - right)
     legend_h = 10.0 * len(legend) + (4 if legend else 0)
