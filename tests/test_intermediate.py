@@ -2,7 +2,8 @@
 
 Check values: mirror geometry (a symmetric layout must give the mirror length, docs/methods.md
 §5.1), brute-force scans, beam statics solved independently with numpy.linalg, hand calculations
-of the ISO 281 formulas (ISO 281:2007 from memory [M], docs/methods.md §5.3).
+of the bearing loads (the life formulas' hand checks are regression values in
+tests/regression/test_regression_bearing.py; published values in tests/validation).
 """
 
 from __future__ import annotations
@@ -18,11 +19,7 @@ from shaftcheck.methods.halfshaft_geometry import joint_geometry, solve_strut
 from shaftcheck.methods.intermediate_shaft import (
     angle_difference,
     bearing_reactions,
-    equivalent_load,
     place_bearing,
-    rating_life,
-    rating_life_distance,
-    rating_life_time,
 )
 from shaftcheck.studies.context import strut_hard_points
 
@@ -145,29 +142,3 @@ def test_reactions_vectorised_over_torque_and_poses(poses):
     with pytest.raises(ValueError, match="outboard of the output point"):
         bearing_reactions(1.0, OUTPUT_POINT, -Y, 0.03, 0.035, right.outboard_joint_centre[0, 0],
                           right.spindle_axis[0, 0])
-
-
-# --- life --------------------------------------------------------------------------------------
-
-def test_life_units_hand_calculation():
-    # ISO 281 [M] L10 = (C/P)^3 1e6 rev; hand: C 15 kN, P 750 N -> 8000e6 rev; at 1000 rpm
-    # (104.72 rad/s) -> 8000e6 / 60000 h = 133 333.3 h; at R = 0.3 m -> 8000e6 * 2 pi 0.3 m
-    life = rating_life(15e3, 750.0)
-    assert life == pytest.approx(8000e6, rel=1e-12)
-    hours = rating_life_time(15e3, 750.0, 1000 * 2 * math.pi / 60) / 3600
-    assert hours == pytest.approx(8000e6 / 60000, rel=1e-12)
-    assert rating_life_distance(15e3, 750.0, 0.3) == pytest.approx(8000e6 * 2 * math.pi * 0.3)
-    # roller exponent 10/3 (ISO 281 [M]): (10)^(10/3) 1e6
-    assert rating_life(10e3, 1e3, exponent=10 / 3) == pytest.approx(10 ** (10 / 3) * 1e6)
-
-
-def test_equivalent_load_spectrum_hand_calculation():
-    # P = (sum P_i^3 n_i / sum n_i)^(1/3) [M]: 1 kN and 2 kN, equal revolutions ->
-    # ((1 + 8) / 2)^(1/3) kN = 1.650964 kN (hand); life from it equals Miner-summed lives
-    p = equivalent_load([1e3, 2e3], [1.0, 1.0])
-    assert p == pytest.approx(1e3 * 4.5 ** (1 / 3), rel=1e-12)
-    lives = rating_life(20e3, np.array([1e3, 2e3]))
-    miner = 1.0 / (0.5 / lives[0] + 0.5 / lives[1])  # fractions of revolutions at each load
-    assert rating_life(20e3, p) == pytest.approx(miner, rel=1e-12)
-    with pytest.raises(ValueError):
-        equivalent_load([1e3], [0.0])

@@ -409,11 +409,14 @@ def _intermediate(t: Table, side_material: Material, materials: dict) -> Interme
         raise DesignError(t.key("bearing_offset_mm"), f"= {offset * 1e3:g} mm: must be shorter "
                           "than the shortest intermediate length")
     rating = t.get("bearing_dynamic_rating_n")
+    static = t.get("bearing_static_rating_n")
+    pitch = t.get("joint_pitch_radius_mm")
     material = _ref(t, "material", materials, "materials") if t.has("material") \
         else side_material
     segs = _segments(t)
     t.done()
-    return Intermediate(point, offset, length, rng, rating, segs, material)
+    return Intermediate(point, offset, length, rng, rating, segs, material, static,
+                        None if pitch is None else pitch * 1e-3)
 
 
 def _spectrum(t: Table | None) -> list:

@@ -215,3 +215,155 @@ def equivalent_load(loads, revolutions, exponent: float = BALL_LIFE_EXPONENT):
     if p.shape != n.shape or np.any(n < 0) or n.sum() <= 0:
         raise ValueError("loads and revolutions must match in shape, revolutions >= 0, sum > 0")
     return float((np.sum(p**exponent * n) / n.sum()) ** (1.0 / exponent))
+
+
+# --- equivalent dynamic load of a deep-groove ball bearing (ISO 281) -------------------------
+
+#: Radial factor X of a single-row deep-groove ball bearing when Fa/Fr > e [-] (ISO 281:2007,
+#: Table 3; the same X = 0.56 in Shigley 10th ed., Table 11-1).
+DGBB_X2 = 0.56
+#: Fa/C0 breakpoints of the X, Y table of single-row deep-groove ball bearings [-], as tabulated
+#: in R. G. Budynas & J. K. Nisbett, Shigley's Mechanical Engineering Design, 10th ed.
+#: (McGraw-Hill, 2015), Table 11-1 (ISO 281's f0 Fa/C0r column divided by f0 ~ 12.3; the
+#: intermediate rows 0.021, 0.042, 0.070 of the book are left out, linear interpolation spans
+#: them). Key ``iso281_xy``.
+DGBB_FA_C0 = np.array([0.014, 0.028, 0.056, 0.084, 0.110, 0.17, 0.28, 0.42, 0.56])
+#: e (limit of Fa/Fr below which P = Fr) at each breakpoint [-].
+DGBB_E = np.array([0.19, 0.22, 0.26, 0.28, 0.30, 0.34, 0.38, 0.42, 0.44])
+#: Y (axial factor when Fa/Fr > e) at each breakpoint [-].
+DGBB_Y2 = np.array([2.30, 1.99, 1.71, 1.55, 1.45, 1.31, 1.15, 1.04, 1.00])
+
+
+class EquivalentLoad(NamedTuple):
+    """Equivalent dynamic load P = X Fr + Y Fa [N] with the factors used (arrays over the
+    input shape); e [-] the limit used; fa_c0 [-] Fa/C0 (nan without C0)."""
+
+    load: np.ndarray
+    x: np.ndarray
+    y: np.ndarray
+    e: np.ndarray
+    fa_c0: np.ndarray
+
+
+def equivalent_dynamic_load(radial, axial, static_rating=None) -> EquivalentLoad:
+    """ISO 281:2007 equivalent dynamic radial load of a single-row deep-groove ball bearing.
+
+    radial Fr [N], axial Fa [N] (magnitudes, broadcast); static_rating C0 [N] or None.
+    P = Fr when Fa/Fr <= e, else P = X Fr + Y Fa with X = 0.56 and e, Y interpolated linearly in
+    Fa/C0 (Table 11-1 of Shigley 10th ed.; ISO 281:2007 Table 3 with f0 Fa/C0r). Fa/C0 below the
+    first row takes the first row (the largest Y), above the last row the last row.
+    Without C0 the conservative rule P = max(Fr, 0.56 Fr + 2.30 Fa): the largest Y of the table
+    bounds every row (docs/methods.md §5.3). Key ``iso281_xy``.
+    """
+    fr = np.abs(np.asarray(radial, float))
+    fa = np.abs(np.asarray(axial, float))
+    fr, fa = np.broadcast_arrays(fr, fa)
+    if static_rating is None:
+        ratio = np.full(fr.shape, np.nan)
+        e = np.full(fr.shape, DGBB_E[0])
+        y2 = np.full(fr.shape, DGBB_Y2[0])
+        combined = DGBB_X2 * fr + y2 * fa
+        use = combined > fr
+    else:
+        c0 = float(static_rating)
+        if not c0 > 0:
+            raise ValueError("the static load rating C0 must be positive")
+        ratio = fa / c0
+        e = np.interp(ratio, DGBB_FA_C0, DGBB_E)
+        y2 = np.interp(ratio, DGBB_FA_C0, DGBB_Y2)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            use = np.where(fr > 0, fa / np.where(fr > 0, fr, 1.0) > e, fa > 0)
+        combined = DGBB_X2 * fr + y2 * fa
+    x = np.where(use, DGBB_X2, 1.0)
+    y = np.where(use, y2, 0.0)
+    return EquivalentLoad(np.where(use, combined, fr), x, y, e, ratio)
+
+
+def duty_mean_load(loads, time_share, speed, exponent: float = BALL_LIFE_EXPONENT) -> float:
+    """Mean equivalent load of a duty cycle [N]: P_m = (sum t_i n_i P_i^p / sum t_i n_i)^(1/p).
+
+    loads P_i [N], time_share t_i [-] (any scale), speed n_i [rad/s or rev/s, any consistent
+    unit]; the revolutions at P_i are t_i n_i. ISO 281 / bearing-maker catalogue method for
+    variable load and speed (for example the SKF Rolling bearings catalogue, "Equivalent mean
+    load"; key ``iso281_l10``). Equal to :func:`equivalent_load` with n_i = t_i n_i.
+    """
+    t = np.asarray(time_share, float)
+    n = np.asarray(speed, float)
+    if np.any(t < 0) or np.any(n < 0):
+        raise ValueError("time shares and speeds must be >= 0")
+    return equivalent_load(np.asarray(loads, float), t * n, exponent)
+
+
+def revolutions_per_distance(rolling_radius) -> float:
+    """Shaft revolutions per metre of vehicle travel [rev/m] for a shaft at wheel speed:
+    1 / (2 pi R), R = loaded (rolling) radius [m]. Independent of the speed."""
+    return 1.0 / (2.0 * np.pi * float(rolling_radius))
+
+
+#: Minimum load of a ball bearing as a fraction of C [-]: "as a general rule, minimum loads of
+#: 0.01 C should be imposed on ball bearings and 0.02 C on roller bearings" (SKF, Rolling
+#: bearings catalogue, section "Requisite minimum load"; key ``bearing_minimum_load``).
+BALL_MINIMUM_LOAD_FRACTION = 0.01
+
+
+def minimum_load(dynamic_rating, fraction: float = BALL_MINIMUM_LOAD_FRACTION) -> float:
+    """Requisite minimum load of a ball bearing [N]: 0.01 C (catalogue rule, see above)."""
+    return float(fraction) * float(dynamic_rating)
+
+
+# --- weight and axial joint forces on the intermediate shaft ----------------------------------
+
+#: Standard gravity [m/s^2] (ISO 80000-3).
+STANDARD_GRAVITY = 9.80665
+
+
+def weight_reactions(masses, positions, output_axis, span, gravity=(0.0, 0.0, -STANDARD_GRAVITY)):
+    """Support reactions of a shaft's own weight (SI).
+
+    masses (n,) [kg] at positions s_i (n,) [m] from the output point along output_axis d (unit,
+    3); supports at s = 0 (output) and s = span (bearing); gravity (3,) [m/s^2] in vehicle axes
+    (ISO 8855, z up). The part of each weight across the axis, F_i, gives R_B = -sum s_i F_i /
+    span and R_A = -sum F_i - R_B (beam statics, as :func:`bearing_reactions`); the part along
+    the axis goes to the axial load. Returns (R_B (3,), R_A (3,), axial force along d [N]).
+    """
+    d = unit(np.asarray(output_axis, float))
+    m = np.asarray(masses, float)
+    s = np.asarray(positions, float)
+    w = m[:, None] * np.asarray(gravity, float)[None, :]  # (n, 3) [N]
+    axial = float(np.sum(w @ d))
+    w_t = w - (w @ d)[:, None] * d
+    r_b = -np.sum(s[:, None] * w_t, axis=0) / float(span)
+    r_a = -np.sum(w_t, axis=0) - r_b
+    return r_b, r_a, axial
+
+
+def joint_roller_load(torque, pitch_radius):
+    """Normal force of one roller of a tripod joint [N]: T / (3 R), R = pitch radius [m]
+    (torque balance of three rollers at 120 deg; exact for the idealised joint)."""
+    return np.abs(np.asarray(torque, float)) / (3.0 * float(pitch_radius))
+
+
+def plunge_friction_force(torque, pitch_radius, friction):
+    """Axial friction force of a plunging joint while it plunges [N]: mu * T / R.
+
+    The three rollers (or the balls) carry normal forces summing to T / R [N] (torque [N*m],
+    pitch radius R [m]); when the joint slides axially every contact's friction points the same
+    way, so the axial force is mu times that sum (Coulomb friction; docs/methods.md §5.2,
+    key ``joint_axial_force``). friction mu [-].
+    """
+    return float(friction) * np.abs(np.asarray(torque, float)) / float(pitch_radius)
+
+
+def tripod_generated_axial_force(torque, pitch_radius, friction, angle):
+    """Third-order generated axial force (GAF) of an articulated tripod joint [N], amplitude.
+
+    With the joint articulated (angle > 0 [rad]) each roller moves to and fro along its track
+    once per revolution, the three 120 deg apart; Coulomb friction mu T/(3R) on each roller
+    against its motion sums to +-mu T/(3R) with three sign changes each way per revolution, a
+    square wave of the third order (the 3-per-revolution thrust studied by Sugiura et al.,
+    J. System Design and Dynamics 3(6), 2009). Amplitude mu T/(3R) [N]; 0 at angle 0. The rise
+    of the measured GAF with angle is not modelled (mu is an effective value).
+    Project derivation (docs/methods.md §5.2, key ``joint_axial_force``).
+    """
+    a = np.asarray(angle, float)
+    return np.where(a > 0.0, float(friction) * joint_roller_load(torque, pitch_radius), 0.0)

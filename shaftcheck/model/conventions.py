@@ -76,12 +76,22 @@ CONVENTIONS: dict[str, Convention] = {
         "Rack travel is the displacement of the tie-rod inner points along +y (towards the "
         "car's left) from design; one value moves both inner points, so on a mirrored right "
         "corner rack r corresponds to -r on the left corner."),
+    "bearing_axial_load": Convention(
+        "§5.2",
+        "The support bearing takes the whole axial load of the intermediate shaft (the spline "
+        "at the side gear slides): the joint force and the weight along the axis, the plunging "
+        "joint's friction mu T/R as if it plunged all the time, and a tripod's third-order "
+        "generated axial force mu T/(3R), added in magnitude (conservative); joint masses, "
+        "unbalance and bracket motion are not included."),
     "bearing_duty": Convention(
         "§5.3",
-        "For bearing life each spectrum bin runs at the radial load of its maximum torque, for "
-        "a share of the revolutions proportional to its cycles; hours are given at the maximum "
-        "vehicle speed (the shortest time) and distance does not depend on speed; shaft "
-        "weight, unbalance and joint axial forces are not included."),
+        "Bearing life is taken over a duty: suspension poses with time shares (default half the "
+        "time at the design pose, the rest at a quarter and half of the jounce and rebound "
+        "travel and at 30 % rack) times drive states with time share, speed and torque "
+        "(default urban, rural, motorway and two accelerations at 10 to 70 % of the design "
+        "torque), the two independent; P = X Fr + Y Fa at every duty point, the cubic mean "
+        "weighted by time x shaft speed, and the life in km from the loaded tyre radius; the "
+        "defaults are common practice without a source, a measured duty replaces them."),
     "fillet_at_step": Convention(
         "§6.1",
         "The fillet radius belongs to the step: it is taken from the smaller-diameter neighbour "

@@ -152,7 +152,8 @@ class Suspension:
 @dataclass(frozen=True)
 class Intermediate:
     """Intermediate shaft: output_point [m], bearing_offset [m], length [m] or None (to be
-    placed), length_range [m], bearing_dynamic_rating [N], segments, material."""
+    placed), length_range [m], bearing_dynamic_rating [N], segments, material; optional
+    bearing_static_rating C0 [N] and joint_pitch_radius [m] (bearing life), None when absent."""
 
     output_point: tuple
     bearing_offset: float
@@ -161,6 +162,8 @@ class Intermediate:
     bearing_dynamic_rating: float
     segments: tuple
     material: Material
+    bearing_static_rating: float | None = None
+    joint_pitch_radius: float | None = None
 
 
 @dataclass(frozen=True)

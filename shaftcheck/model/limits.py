@@ -464,6 +464,15 @@ TABLES: tuple[TableSpec, ...] = (
                        note="absent: shaftcheck places the bearing"),
                   _num("bearing_dynamic_rating_n", "N", (500.0, 1.0e6), (3000.0, 100000.0),
                        "Basic dynamic load rating C of the support bearing (bearing life)."),
+                  _num("bearing_static_rating_n", "N", (300.0, 1.0e6), (1500.0, 80000.0),
+                       "Basic static load rating C0 of the support bearing (a single-row "
+                       "deep-groove ball bearing): sets the X, Y factors of ISO 281.",
+                       default=OPTIONAL,
+                       note="absent: the conservative Y = 2.30 of the table's first row"),
+                  _num("joint_pitch_radius_mm", "mm", (5.0, 100.0), (12.0, 45.0),
+                       "Pitch radius of the side's plunging joint (roller or ball centres): "
+                       "converts torque to its axial friction forces on the bearing.",
+                       default=OPTIONAL, note="absent: 20 mm, small and so conservative"),
                   Key("material", "ref", default=OPTIONAL,
                       meaning="Material id of the intermediate shaft.",
                       note="absent: the side's material"),

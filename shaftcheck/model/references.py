@@ -224,9 +224,31 @@ REFERENCES: dict[str, Reference] = {
         "on two simple supports", "D/P", "§5.1"),
     "iso281_l10": Reference(
         "ISO 281:2007, Rolling bearings - Dynamic load ratings and rating life: basic rating "
-        "life L10 = (C/P)^p 10^6 revolutions, p = 3 ball, 10/3 roller; variable-load mean "
-        "P = (sum P_i^p n_i / sum n_i)^(1/p) as in bearing makers' catalogues", "M", "§5.3",
-        "edition, clause and the equivalent-load definition not checked in the standard"),
+        "life L10 = (C/P)^p 10^6 revolutions, p = 3 ball, 10/3 roller; mean load of a "
+        "variable duty P_m = (sum t_i n_i P_i^p / sum t_i n_i)^(1/p), t_i time share, n_i "
+        "speed, as in bearing makers' catalogues", "M", "§5.3",
+        "edition, clause and the mean-load definition not checked in the standard; the life "
+        "equation is confirmed by the worked solutions of Shigley's 8th ed. (tests/validation)"),
+    "iso281_xy": Reference(
+        "ISO 281:2007, Table 3: X = 0.56 and e, Y of single-row deep-groove ball bearings, "
+        "tabulated against Fa/C0 in R. G. Budynas & J. K. Nisbett, Shigley's Mechanical "
+        "Engineering Design, 8th-10th ed. (McGraw-Hill, 2008-2015), Table 11-1; e from 0.19 "
+        "to 0.44 and Y from 2.30 to 1.00 as in the ABMA table of J. E. Pope (ed.), Rules of "
+        "Thumb for Mechanical Engineers (Gulf, 1997), Table 7a", "S/M", "§5.3",
+        "the e and Y columns and the rows Fa/C0 = 0.084 to 0.28 were seen (handbook page, "
+        "worked solutions); the breakpoints 0.014, 0.028, 0.056, 0.42, 0.56 are from memory "
+        "and the standard's Table 3 with its f0 was not read"),
+    "bearing_minimum_load": Reference(
+        "SKF Group, Rolling bearings catalogue (online edition, section 'Requisite minimum "
+        "load', read 2026): as a general rule a minimum load of 0.01 C on ball bearings and "
+        "0.02 C on roller bearings", "S", "§5.3"),
+    "joint_axial_force": Reference(
+        "Project derivation: axial forces of a plunging joint from Coulomb friction on contacts "
+        "carrying T/R in all, plunge friction mu T/R and a tripod's third-order generated axial "
+        "force of amplitude mu T/(3R); friction coefficients are project estimates. The "
+        "third-order thrust itself is documented by H. Sugiura, T. Matsunaga, Y. Mizutani, "
+        "Y. Ando & I. Kashiwagi, Thrust Force Analysis of Tripod Constant Velocity Joint Using "
+        "Multibody Model, J. System Design and Dynamics 3(6), 2009", "D/P", "§5.2"),
     # --- torque steer (steady, split, transient) ----------------------------------------------
     "disturbing_force_lever_arm": Reference(
         "J. Reimpell, H. Stoll & J. W. Betzler, The Automotive Chassis: Engineering "

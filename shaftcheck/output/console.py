@@ -326,12 +326,24 @@ def print_bearing(b: dict) -> None:
     print_table(console, "joint angles over wheel travel (+ jounce), rack centred [deg]", cols,
                 rows)
     lo = b["loads"]
-    print_text(console, f"bearing radial load at design torque: {lo['radial_load_design_n']:.0f} "
-               f"N; equivalent duty-cycle load {lo['equivalent_load_n']:.0f} N")
+    print_text(console, f"bearing radial load at design torque and pose: "
+               f"{lo['radial_load_design_n']:.0f} N; shaft weight {lo['shaft_weight_n']:.1f} N")
+    g = b["governing"]
+    print_text(console, f"governing duty point: {g['state']}, {g['speed_kmh']:.0f} km/h, "
+               f"{g['torque_nm']:.0f} N*m, travel {g['travel_mm']:+.0f} mm, rack "
+               f"{g['rack_mm']:+.0f} mm: Fr {g['radial_load_n']:.0f} N, Fa "
+               f"{g['axial_load_n']:.0f} N, X {g['x']:.2f}, Y {g['y']:.2f}, P "
+               f"{g['equivalent_load_n']:.0f} N", hanging="  ")
+    print_text(console, f"mean equivalent load over the duty P_m = X Fr + Y Fa, cubic mean: "
+               f"{lo['equivalent_load_n']:.0f} N", hanging="  ")
     life = b["life"]
+    more = "> " if life.get("l10_km_capped") else ""
     print_text(console, f"basic rating life L10 (ISO 281): {fmt(life['l10_million_rev'])} "
-               f"million rev, {fmt(life['l10_hours'], 'h')} h at {life['speed_rpm']:.0f} rpm, "
-               f"{fmt(life['l10_km'], 'km')} km")
+               f"million rev, {more}{fmt(life['l10_km'], 'km')} km, "
+               f"{fmt(life['l10_hours'], 'h')} h at the duty's mean {life['speed_rpm']:.0f} rpm",
+               hanging="  ")
+    for n in b.get("notices", ()):
+        print_text(console, f"note: {n}", hanging="  ")
     print_caution()
 
 

@@ -120,19 +120,56 @@ def _bearing(b) -> list:
          f"{b.limit * RAD2DEG:.1f} deg - {st.met(b.criterion_met)}"),
     ]
     if life is not None:
+        gov = life.governing_dict() if life.radial is not None else None
+        cap = " (computed above 10^7 km: reported as &gt; 10^7 km)" if life.capped else ""
         rows += [
-            ("Radial load at design torque", f"{st.num(life.radial_load_design, 4)} N "
-             f"(output support {st.num(life.output_support_load_design, 4)} N, joint "
-             f"couple {st.num(life.joint_couple_design, 3)} N*m)"),
-            ("Equivalent load over the spectrum", f"{st.num(life.equivalent_load, 4)} N"),
+            ("Loads at the design pose", f"radial {st.num(life.radial_load_design, 4)} N at "
+             f"design torque (output support {st.num(life.output_support_load_design, 4)} N, "
+             f"joint couple {st.num(life.joint_couple_design, 3)} N*m); shaft weight "
+             f"{st.num(life.shaft_weight, 3)} N"),
+            ("Mean equivalent load P_m", f"{st.num(life.equivalent_load, 4)} N over the duty "
+             "(P = X Fr + Y Fa at each duty point, cubic mean weighted by time x speed); C0 "
+             + (f"{st.num(life.static_rating, 4)} N" if life.static_rating else
+                "not given: conservative Y = 2.30")),
             ("Basic rating life L10", f"{st.num(life.l10_rev / 1e6, 3)} million rev = "
-             f"{st.num(life.l10_distance / 1e3, 3)} km = {st.num(life.l10_time / 3600, 3)} h "
-             f"(C = {st.num(life.dynamic_rating, 4)} N; at the maximum vehicle speed, the "
-             "shortest time)"),
+             f"{'&gt; ' if life.capped else ''}{st.num(life.l10_distance / 1e3, 3)} km{cap}; "
+             f"{st.num(life.l10_time / 3600, 3)} h at the duty's mean speed (C = "
+             f"{st.num(life.dynamic_rating, 4)} N)"),
         ]
+        if gov is not None:
+            rows.append(("Governing duty point", f"{st.esc(gov['state'])}, "
+                         f"{gov['speed_kmh']:.0f} km/h, {gov['torque_nm']:.0f} N*m, travel "
+                         f"{gov['travel_mm']:+.0f} mm, rack {gov['rack_mm']:+.0f} mm: Fr "
+                         f"{gov['radial_load_n']:.0f} N, Fa {gov['axial_load_n']:.0f} N, X "
+                         f"{gov['x']:.2f}, Y {gov['y']:.2f}, P {gov['equivalent_load_n']:.0f} N, "
+                         f"{gov['damage_share'] * 100:.0f} % of the cubic mean"))
+            rows.append(("Minimum load (0.01 C)", f"{life.minimum_load:.0f} N; radial load "
+                         f"below it {life.below_minimum_share * 100:.0f} % of the driving time"
+                         + (" - skidding risk, not covered by L10"
+                            if life.below_minimum_share > 0 else "")))
     out.append(key_value_table(rows, widths_mm=(52, 118)))
+    if life is not None and life.drive is not None:
+        out.append(gap(2))
+        out.append(data_table(
+            ["Drive state", "Time share", "Speed", "Torque", "Fr (max over poses)",
+             "Fa (max)", "P (max)"],
+            [[st.esc(n), f"{t * 100:.0f} %", f"{v * 3.6:.0f} km/h", f"{q:.0f} N*m",
+              f"{fr:.0f} N", f"{fa:.0f} N", f"{p:.0f} N"]
+             for n, t, v, q, fr, fa, p in zip(
+                 life.drive.names, life.drive.share, life.drive.speed, life.drive.torque,
+                 life.radial.max(axis=1), life.axial.max(axis=1), life.load.max(axis=1),
+                 strict=True)],
+            [38, 20, 22, 22, 30, 20, 18], right=(1, 2, 3, 4, 5, 6)))
+        poses = ", ".join(f"{tr * 1e3:+.0f}/{rk * 1e3:+.0f} mm {sh * 100:.0f} %" for tr, rk, sh
+                          in zip(life.poses.travel, life.poses.rack, life.poses.share,
+                                 strict=True))
+        out.append(caption(f"Duty: drive states ({st.esc(life.drive.basis)}) times suspension "
+                           f"poses travel/rack with time share: {poses} "
+                           f"({st.esc(life.poses.basis)})."))
     if life is not None and life.convention:
         out.append(caption(f"Loads: {life.convention}."))
+    if life is not None and life.notices:
+        out.append(caption("Notes: " + "; ".join(st.esc(n) for n in life.notices) + "."))
     if b.scan_length.size:
         pts = list(zip((b.scan_length * 1e3).tolist(),
                        (b.scan_difference * RAD2DEG).tolist(), strict=True))

@@ -76,10 +76,15 @@ class Context:
     """Shared, lazily computed inputs of the studies of one design (see module docstring)."""
 
     def __init__(self, design, *, travel_points: int = GEOMETRY_TRAVEL_POINTS,
-                 rack_points: int = GEOMETRY_RACK_POINTS):
+                 rack_points: int = GEOMETRY_RACK_POINTS, bearing_pose_duty=None,
+                 bearing_drive_duty=None):
         self.design = design
         self.travel_points = int(travel_points)
         self.rack_points = int(rack_points)
+        #: bearing-life duty of the intermediate shaft (studies.bearing.pose_duty /
+        #: drive_duty); None = the bearing study's documented defaults
+        self.bearing_pose_duty = bearing_pose_duty
+        self.bearing_drive_duty = bearing_drive_duty
         self.corner_solves = 0
         self._poses: dict = {}
 
@@ -143,6 +148,12 @@ class Context:
     def _union(self) -> tuple[np.ndarray, np.ndarray]:
         travel = np.unique(np.concatenate([self.travel, self.torque_steer_travel]))
         rack = np.unique(np.concatenate([self.rack, self.torque_steer_rack]))
+        if any(self.design.side(s).intermediate is not None for s in SIDES):
+            from shaftcheck.studies.bearing import duty_poses  # bearing-life poses
+
+            duty = duty_poses(self)
+            travel = np.unique(np.concatenate([travel, duty.travel]))
+            rack = np.unique(np.concatenate([rack, duty.rack]))
         return travel, rack
 
     # --- corner poses ---------------------------------------------------------------------------
