@@ -109,7 +109,9 @@ def design_from_dict(data: dict, path: str = "<memory>", sha256: str = "",
                              tuple(tables_from))
     left = _side(root.child("left", "side"), "left", joints, materials)
     right = _side(root.child("right", "side"), "right", joints, materials)
-    spectrum = _spectrum(root.child("loads", "loads", required=False))
+    loads = root.child("loads", "loads", required=False)
+    history = _history(loads, base_dir or Path("."), tuple(tables_from))
+    spectrum = _spectrum(loads)
     tolerances = _tolerances(root.child("tolerances", "tolerances", required=False))
     torque_steer = _torque_steer(root.child("torque_steer", "torque_steer", required=False))
     variants = _variants(root, data)
@@ -120,7 +122,8 @@ def design_from_dict(data: dict, path: str = "<memory>", sha256: str = "",
     checks.check_tolerances(tolerances, (left, right))
     return Design(path, sha256, project, vehicle, powertrain, criteria, materials, joints,
                   suspension, left, right, tuple(spectrum), tolerances, torque_steer,
-                  tuple(notices), tuple(_flat_inputs(data)), variants)
+                  tuple(notices), tuple(_flat_inputs(data)), variants,
+                  torque_history=history)
 
 
 def _ids(t: Table, schema: str, maximum: int):
@@ -419,9 +422,41 @@ def _intermediate(t: Table, side_material: Material, materials: dict) -> Interme
                         None if pitch is None else pitch * 1e-3)
 
 
+def _history(t: Table | None, base_dir: Path, tables_from: tuple):
+    """The measured duty cycle of [loads] torque_history (read, not yet counted), with the
+    distances of its scale-up; None without one. Not together with [[loads.spectrum]]."""
+    if t is None or not t.has("torque_history"):
+        for key in _HISTORY_KEYS[1:]:
+            if t is not None and t.has(key):
+                raise DesignError(t.key(key), "only a torque_history takes this key")
+        return None
+    import dataclasses
+
+    from shaftcheck.io.history_csv import load_history
+
+    name = t.get("torque_history")
+    if t.has("spectrum"):
+        raise DesignError(t.key("torque_history"), "give either torque_history or "
+                          "[[loads.spectrum]] bins, not both (the history's counted cycles are "
+                          "the duty cycle)")
+    distance = t.get("history_distance_km", required=True)
+    life = t.get("design_life_km", required=True)
+    if life < distance:
+        raise DesignError(t.key("design_life_km"), f"= {life:g} km: must not be below "
+                          f"history_distance_km = {distance:g} km")
+    history = load_history(name, base_dir, tables_from, t.key("torque_history"))
+    return dataclasses.replace(history, distance=distance * 1e3, life=life * 1e3)
+
+
+#: keys of [loads] that belong to a torque history (read by _history, passed over by _spectrum)
+_HISTORY_KEYS = ("torque_history", "history_distance_km", "design_life_km")
+
+
 def _spectrum(t: Table | None) -> list:
     if t is None:
         return []
+    for key in _HISTORY_KEYS:
+        t.raw(key, required=False)  # read by _history (a variant keeps the base's history)
     bins = []
     for b in t.tables("spectrum", "bin", MAX_SPECTRUM_BINS, required=False):
         lo = b.get("torque_min_nm")

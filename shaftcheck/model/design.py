@@ -250,6 +250,9 @@ class Design:
     inputs: tuple[tuple[str, object], ...] = ()
     #: the [[variants]] of the vehicle line (empty: the base design alone)
     variants: tuple[Variant, ...] = ()
+    #: the measured duty cycle of [loads] torque_history (a methods.rainflow_cycles.TorqueHistory
+    #: with the scale-up distances), None without one
+    torque_history: object | None = None
 
     def side(self, name: str) -> Side:
         return self.left if name == "left" else self.right

@@ -38,6 +38,10 @@ MAX_TABLE_ROWS = 20_000
 MAX_SEGMENTS = 40
 #: bins of the fatigue duty cycle ([[loads.spectrum]])
 MAX_SPECTRUM_BINS = 5_000
+#: largest measured time-history file read ([loads] torque_history, shaftcheck spectrum) [bytes]
+MAX_HISTORY_FILE_BYTES = 120_000_000
+#: samples of one time history (e.g. one hour at 500 Hz is 1,800,000)
+MAX_HISTORY_ROWS = 2_000_000
 #: joint definitions and design materials
 MAX_JOINTS = 20
 MAX_MATERIALS = 50
@@ -488,6 +492,18 @@ TABLES: tuple[TableSpec, ...] = (
               "One bin of the duty cycle: torque cycles between two shaft torques.", (
                   _num("torque_min_nm", "N*m", (-20000.0, 20000.0), (-5000.0, 5000.0),
                        "Lower torque of the cycle."),
+        Key("torque_history", "path", default=OPTIONAL, max_length=MAX_PATH_LENGTH,
+            meaning="CSV time history of the drive torque of each side (optionally wheel and "
+                    "rack travel), relative to the design file's folder; its rainflow-counted "
+                    "cycles are the duty cycle (columns: docs/methods.md §2.4).",
+            note="not together with spectrum; needs history_distance_km and design_life_km"),
+        _num("history_distance_km", "km", (0.001, 1.0e5), (1.0, 5000.0),
+             "Distance driven while the torque history was recorded.", default=OPTIONAL,
+             note="required with torque_history"),
+        _num("design_life_km", "km", (100.0, 1.0e7), (50000.0, 1.0e6),
+             "Vehicle distance the duty cycle stands for: the history is repeated "
+             "design_life_km / history_distance_km times.", default=OPTIONAL,
+             note="required with torque_history"),
                   _num("torque_max_nm", "N*m", (-20000.0, 20000.0), (-5000.0, 5000.0),
                        "Upper torque of the cycle; above torque_min_nm."),
                   _num("cycles", "", (1.0, 1.0e12), (1.0, 1.0e9), "Number of cycles."),

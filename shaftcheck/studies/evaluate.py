@@ -22,7 +22,7 @@ def evaluate(design, *, travel_points: int = GEOMETRY_TRAVEL_POINTS,
     transient: also run the transient torque-steer study (the report and the torque-steer
     command ask for it). ctx: a context to reuse (it must belong to ``design``).
     """
-    from shaftcheck.studies import bearing, geometry, sides, strength, torque_steer
+    from shaftcheck.studies import bearing, duty_cycle, geometry, sides, strength, torque_steer
 
     ctx = ctx or Context(design, travel_points=travel_points, rack_points=rack_points)
     checks: list = []
@@ -38,13 +38,14 @@ def evaluate(design, *, travel_points: int = GEOMETRY_TRAVEL_POINTS,
     bearings_res = take(bearing)
     strength_res = take(strength, _strength_legacy)
     torque_res = take(torque_steer, _torque_steer_legacy)
+    duty_res = take(duty_cycle)
     transient_res = None
     if transient and _has_transient_study():
         from shaftcheck.studies import transient as transient_study
 
         transient_res = take(transient_study)
     notices = list(getattr(design, "notices", ()))
-    for res in (strength_res, torque_res, transient_res, *bearings_res.values()):
+    for res in (strength_res, torque_res, transient_res, duty_res, *bearings_res.values()):
         for n in getattr(res, "notices", ()) or ():
             if n not in notices:
                 notices.append(n)
@@ -53,7 +54,8 @@ def evaluate(design, *, travel_points: int = GEOMETRY_TRAVEL_POINTS,
             if n not in notices:
                 notices.append(n)
     return Result(design, tuple(checks), tuple(notices), dict(ctx.cases), sides_res,
-                  geometry_res, bearings_res, strength_res, torque_res, transient_res)
+                  geometry_res, bearings_res, strength_res, torque_res, transient_res,
+                  duty_cycle=duty_res)
 
 
 # --- transitional adapters for studies not yet on the contract (removed when they move) ------

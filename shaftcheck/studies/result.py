@@ -98,6 +98,9 @@ class Result:
     #: the governing variant's.
     variants: Any = None
 
+    #: DutyCycleResult of a design with a [loads] torque_history (studies.duty_cycle); None
+    #: otherwise
+    duty_cycle: Any = None
     @property
     def verdict(self) -> str:
         return "pass" if all(c.passed for c in self.checks) else "fail"
@@ -137,6 +140,10 @@ class Result:
         if self.transient is not None:
             out["torque_steer"]["transient"] = self.transient.to_dict()
         if self.variants is not None:
+        if self.tolerance is not None:
+            out["tolerance"] = self.tolerance.to_dict()
+        if self.duty_cycle is not None:
+            out["duty_cycle"] = self.duty_cycle.to_dict()
             out["governing_variant"] = self.variants.governing
             out["variants"] = self.variants.to_dict()
         return jsonable(out)

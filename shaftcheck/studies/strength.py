@@ -12,6 +12,7 @@ Conventions (stated in the output as ``StrengthResult.conventions``) are listed 
 
 from __future__ import annotations
 
+import dataclasses
 import math
 from collections.abc import Mapping
 from dataclasses import dataclass
@@ -112,9 +113,40 @@ class MinerRow:
 
 
 @dataclass(frozen=True)
+class HistoryDamage:
+    """Miner damage of one shaft from every rainflow cycle of a measured torque history (SI).
+
+    location: the section with the largest damage; total: D over the design life (counted
+    cycles times ``repeats``), NaN when a cycle is refused; cycles: cycles counted in the history
+    (half cycles 0.5); repeats: life / measured distance; refused: counted cycles whose
+    equivalent amplitude is above the 10^3-cycle strength; largest_amplitude: largest equivalent
+    fully reversed amplitude at that section [Pa]; endurance: its S_se [Pa]; source: the file.
+    """
+
+    location: object
+    total: float
+    cycles: float
+    repeats: float
+    refused: int
+    largest_amplitude: float
+    endurance: float
+    source: str
+
+    def to_dict(self) -> dict:
+        return {"source": self.source, "damage": _num(self.total),
+                "cycles_counted": self.cycles, "repeats": self.repeats,
+                "refused_cycles": self.refused,
+                "largest_amplitude_mpa": _num(self.largest_amplitude, MPA),
+                "endurance_mpa": _num(self.endurance, MPA),
+                "location": self.location.to_dict()}
+
+
+@dataclass(frozen=True)
 class ShaftEntry:
     """The strength of one shaft: its assessment (SI), the high-cycle fatigue result, the S-N
-    curve and Miner rows for the report, and the shaft's notices."""
+    curve and Miner rows for the report, and the shaft's notices. With a measured torque
+    history the Miner rows are its bins and ``history_damage`` the damage of every counted
+    cycle (the check uses it)."""
 
     side: str
     shaft: str  # "halfshaft" | "intermediate"
@@ -124,6 +156,7 @@ class ShaftEntry:
     sn_curve: SnCurve | None
     miner: tuple
     notices: tuple
+    history_damage: HistoryDamage | None = None
 
     @property
     def label(self) -> str:
@@ -170,6 +203,8 @@ class StrengthResult:
                  "amplitude_mpa": _num(r.amplitude, MPA), "life_cycles": _num(r.life),
                  "damage": _num(r.damage), "status": r.status} for r in e.miner]
             d["material"] = e.material_id
+            if e.history_damage is not None:
+                d["damage_from_history"] = e.history_damage.to_dict()
             out.setdefault(e.side, {})[e.shaft] = d
         for side, w in self.torsional_frequency.items():
             out.setdefault(side, {})["torsional_frequency_hz"] = (
@@ -205,15 +240,45 @@ def whirl_supports(ctx, name: str, shaft: str, segments) -> tuple[float, float]:
     return (bar - span) / 2.0, (bar + span) / 2.0
 
 
-def _miner_rows(design, dmg) -> tuple:
+def _miner_rows(spectrum, dmg) -> tuple:
     rows = []
-    for i, b in enumerate(design.spectrum):
+    for i, (tmin, tmax, cycles) in enumerate(spectrum):
         life, dm = dmg.life[i], dmg.damage[i]
         status = ("refused" if dmg.refused and dmg.refused[i]
                   else "below endurance" if math.isinf(life) else "damage")
-        rows.append(MinerRow(i, b.torque_min, b.torque_max, b.cycles, dmg.tau_a[i],
+        rows.append(MinerRow(i, tmin, tmax, cycles, dmg.tau_a[i],
                              dmg.tau_m[i], dmg.amplitude[i], life, dm, status))
     return tuple(rows)
+
+
+def history_damage(sections, cycles, repeats: float, material, criterion: str,
+                   source: str) -> HistoryDamage:
+    """Miner damage of every rainflow cycle of one side's history at every section; the worst
+    section governs (a section with a refused cycle before any other).
+
+    cycles: :class:`~shaftcheck.methods.rainflow_cycles.CountedCycles` [N*m]; each cycle's
+    amplitude and mean torque become K_fs-factored shear, the equivalent fully reversed amplitude
+    on the design's mean-stress criterion, and n / N on the section's torsional S-N line, the
+    same chain as a spectrum bin (docs/methods.md §7, §2.4), summed over all cycles times
+    ``repeats``.
+    """
+    from shaftcheck.methods import fatigue as fg
+
+    ssu = fg.shear_ultimate(material.ultimate_strength)
+    ssy = fg.shear_yield(material.yield_strength)
+    amp, mean, n = cycles.range / 2.0, cycles.mean, cycles.count * repeats
+    worst = None
+    for s in sections:
+        line = fg.torsional_sn_line(material.ultimate_strength, s.marin.shear_endurance)
+        tar = fg.equivalent_reversed_amplitude(s.kfs * s.shear(amp), s.kfs * s.shear(mean),
+                                               ssu, ssy, criterion)
+        total, refused = fg.miner_sum(tar, n, line)
+        top = float(tar.max()) if tar.size else 0.0
+        key = (refused > 0, total if math.isfinite(total) else math.inf)
+        if worst is None or key > worst[0]:
+            worst = (key, HistoryDamage(s.location, total, cycles.total, repeats, refused, top,
+                                        s.marin.shear_endurance, source))
+    return worst[1]
 
 
 def _assess(design, ctx, name, shaft, segs, material, spectrum, high):
@@ -230,7 +295,7 @@ def _assess(design, ctx, name, shaft, segs, material, spectrum, high):
     if res.damage is not None and res.damage.line is not None:
         line = res.damage.line
         sn = SnCurve(line.curve(), line.endurance, line.strength_1e3, line.label)
-        miner = _miner_rows(design, res.damage)
+        miner = _miner_rows(spectrum, res.damage)
     label = f"{name} {shaft}"
     notices = tuple(f"{label}: {n}" for n in res.notices if "spline root" not in n)
     return ShaftEntry(name, shaft, material.id, res, hc, sn, miner, notices)
@@ -283,10 +348,23 @@ def _checks(design, e: ShaftEntry, high_is_subset: bool) -> list[Check]:
         refused = [i for i, r in enumerate(dmg.refused) if r]
         extra = (f"bins {refused} refused: life below 10^3 cycles, outside the stress-life "
                  "method" if refused else "")
-        out.append(Check(
-            f"fatigue_damage_{tag}", f"Duty-cycle damage (Miner){title}", name, dmg.total,
-            crit.miner_damage_max, "-", "max", _where(shaft, dmg.location),
-            "shigley9_miner", note_for(dmg.location, extra)))
+        hd = e.history_damage
+        if hd is None:
+            out.append(Check(
+                f"fatigue_damage_{tag}", f"Duty-cycle damage (Miner){title}", name, dmg.total,
+                crit.miner_damage_max, "-", "max", _where(shaft, dmg.location),
+                "shigley9_miner", note_for(dmg.location, extra)))
+        else:
+            extra = (f"every rainflow cycle of the measured history '{hd.source}' "
+                     f"({hd.cycles:,.1f} cycles x {hd.repeats:.4g} repeats)")
+            if hd.refused:
+                extra += (f"; {hd.refused} counted cycles refused: life below 10^3 cycles, "
+                          "outside the stress-life method")
+            out.append(Check(
+                f"fatigue_damage_{tag}", f"Duty-cycle damage (Miner, measured history){title}",
+                name, hd.total, crit.miner_damage_max, "-", "max",
+                _where(shaft, hd.location) + ", measured history", "shigley9_miner",
+                note_for(hd.location, extra)))
     bk = res.buckling_governing
     if bk is not None:
         r = bk.resistance
@@ -324,11 +402,18 @@ def run(design, ctx) -> tuple[StrengthResult, list[Check]]:
     """Strength of every shaft of ``design`` on the shared context ``ctx``."""
     from shaftcheck.methods.whirl import shock_peak_torque_ratio, torsional_natural_frequency
 
-    spectrum = [(b.torque_min, b.torque_max, b.cycles) for b in design.spectrum]
-    high = [b for b in spectrum if b[2] >= HIGH_CYCLE] or spectrum
+    history = getattr(design, "torque_history", None)
+    spectra = {name: [(b.torque_min, b.torque_max, b.cycles) for b in design.spectrum]
+               for name in SIDES} if history is None else history_spectra(history)
     entries, checks = [], []
     for name, shaft, segs, material in _shafts(design):
+        spectrum = spectra[name]
+        high = [b for b in spectrum if b[2] >= HIGH_CYCLE] or spectrum
         e = _assess(design, ctx, name, shaft, segs, material, spectrum, high)
+        if history is not None and e.strength.sections:
+            e = dataclasses.replace(e, history_damage=history_damage(
+                e.strength.sections, history.cycles[name], history.repeats, material,
+                design.criteria.mean_stress_criterion, history.source))
         entries.append(e)
         checks += _checks(design, e, high is not spectrum)
     k = {n: ctx.stiffness[n].whole for n in SIDES}
@@ -337,6 +422,11 @@ def run(design, ctx) -> tuple[StrengthResult, list[Check]]:
             for n in SIDES}
     stiff, soft = max(k.values()), min(k.values())
     notices = [n for e in entries for n in e.notices]
+    if history is not None:
+        notices.append(f"duty cycle from the measured torque history '{history.source}': Miner "
+                       f"damage of every rainflow cycle x {history.repeats:.4g} repeats "
+                       "(design_life_km / history_distance_km); the Miner table and the "
+                       "infinite-life check use its bins")
     if any(s.location.where == "spline root" for e in entries for s in e.strength.sections):
         notices.append("spline roots: K_ts = K_fs = 3.0 is an estimate (Shigley 9th ed. Table "
                        "7-1 first-iteration value; no verified spline chart)")
@@ -345,6 +435,18 @@ def run(design, ctx) -> tuple[StrengthResult, list[Check]]:
         shock_peak_torque_ratio(stiff, soft) if math.isfinite(stiff) else None,
         CONVENTIONS, _references(entries), tuple(dict.fromkeys(notices)))
     return result, checks
+
+
+def history_spectra(history) -> dict:
+    """side -> spectrum bins (torque_min, torque_max, cycles) of the side's counted cycles,
+    scaled to the design life (:func:`~shaftcheck.methods.rainflow_cycles.bin_cycles`)."""
+    from shaftcheck.methods.rainflow_cycles import bin_cycles
+
+    out = {}
+    for name in SIDES:
+        b = bin_cycles({name: history.cycles[name]}, history.repeats)
+        out[name] = [(x.torque_min, x.torque_max, x.cycles) for x in b.bins]
+    return out
 
 
 def strength_study(design) -> tuple[dict, list]:
