@@ -37,6 +37,14 @@ length_fit_tolerance_mm            60.0      common practice, no source: allowed
                                              between the sum of segment lengths and the
                                              joint-centre distance (joint housings and stubs)
 bearing_life_min_km                250000    common practice (vehicle life), no source
+tolerance_out_of_limit_max_pct     0.135     common practice, no source, for the target: the
+                                             one-sided fallout Phi(-3) = 0.135 % of a process
+                                             with capability index 1.00, i.e. a limit at 3
+                                             standard deviations from the mean (the relation
+                                             p = Phi(-3 C_pk): D. C. Montgomery, Introduction
+                                             to Statistical Quality Control, ch. 8, from
+                                             memory); the share of sampled builds over each
+                                             limit of the tolerance study (docs/methods.md §14)
 =================================  ========  ==================================================
 """
 
@@ -64,6 +72,7 @@ class Criteria:
     reliability_pct: float = 99.0
     length_fit_tolerance_mm: float = 60.0
     bearing_life_min_km: float = 250000.0
+    tolerance_out_of_limit_max_pct: float = 0.135
 
 
 NUMERIC_CRITERIA = [f for f in Criteria.__dataclass_fields__ if f not in ("mean_stress_criterion",)]

@@ -308,6 +308,11 @@ TABLES: tuple[TableSpec, ...] = (
                   _num("bearing_life_min_km", "km", (100.0, 1.0e7), (50000.0, 1.0e6),
                        "Smallest intermediate-shaft bearing life, in vehicle kilometres.",
                        default=_CRIT.bearing_life_min_km),
+                  _num("tolerance_out_of_limit_max_pct", "%", (0.0, 50.0), (0.0001, 5.0),
+                       "Largest allowed share of the tolerance study's sampled builds over "
+                       "each limit (stiffness mismatch, joint-angle difference); sets the exit "
+                       "status of `shaftcheck tolerance`.",
+                       default=_CRIT.tolerance_out_of_limit_max_pct),
               )),
     TableSpec("material", "[materials.<id>]", "optional",
               "A material of this design. Its id shadows a library material of the same id "
@@ -487,11 +492,6 @@ TABLES: tuple[TableSpec, ...] = (
         Key("spectrum", "tables", default=OPTIONAL,
             meaning=f"Bins of the duty cycle, per shaft (at most {MAX_SPECTRUM_BINS}).",
             note="absent: no duty-cycle (Miner) check"),
-    )),
-    TableSpec("bin", "[[loads.spectrum]]", f"0 to {MAX_SPECTRUM_BINS}",
-              "One bin of the duty cycle: torque cycles between two shaft torques.", (
-                  _num("torque_min_nm", "N*m", (-20000.0, 20000.0), (-5000.0, 5000.0),
-                       "Lower torque of the cycle."),
         Key("torque_history", "path", default=OPTIONAL, max_length=MAX_PATH_LENGTH,
             meaning="CSV time history of the drive torque of each side (optionally wheel and "
                     "rack travel), relative to the design file's folder; its rainflow-counted "
@@ -504,6 +504,11 @@ TABLES: tuple[TableSpec, ...] = (
              "Vehicle distance the duty cycle stands for: the history is repeated "
              "design_life_km / history_distance_km times.", default=OPTIONAL,
              note="required with torque_history"),
+    )),
+    TableSpec("bin", "[[loads.spectrum]]", f"0 to {MAX_SPECTRUM_BINS}",
+              "One bin of the duty cycle: torque cycles between two shaft torques.", (
+                  _num("torque_min_nm", "N*m", (-20000.0, 20000.0), (-5000.0, 5000.0),
+                       "Lower torque of the cycle."),
                   _num("torque_max_nm", "N*m", (-20000.0, 20000.0), (-5000.0, 5000.0),
                        "Upper torque of the cycle; above torque_min_nm."),
                   _num("cycles", "", (1.0, 1.0e12), (1.0, 1.0e9), "Number of cycles."),

@@ -80,7 +80,7 @@ class Result:
 
     ``to_dict()`` is the one place where the whole result becomes plain JSON in trade units.
     ``bearings`` has an entry per side with an intermediate shaft; ``transient`` is None unless
-    it was asked for.
+    it was asked for; ``tolerance`` (the tolerance study) is None unless the report filled it.
     """
 
     design: Any
@@ -93,14 +93,15 @@ class Result:
     strength: Any  # StrengthResult
     torque_steer: Any  # TorqueSteerResult
     transient: Any = None  # TransientResult | None
+    tolerance: Any = None  # ToleranceResult | None (filled for the report)
     #: VariantsResult of a design with [[variants]] (studies.variants); None otherwise. Then
     #: ``checks`` hold the worst row of each check over all variants and the study results are
     #: the governing variant's.
     variants: Any = None
-
     #: DutyCycleResult of a design with a [loads] torque_history (studies.duty_cycle); None
     #: otherwise
     duty_cycle: Any = None
+
     @property
     def verdict(self) -> str:
         return "pass" if all(c.passed for c in self.checks) else "fail"
@@ -139,11 +140,11 @@ class Result:
         out["torque_steer"] = self.torque_steer.to_dict()
         if self.transient is not None:
             out["torque_steer"]["transient"] = self.transient.to_dict()
-        if self.variants is not None:
         if self.tolerance is not None:
             out["tolerance"] = self.tolerance.to_dict()
         if self.duty_cycle is not None:
             out["duty_cycle"] = self.duty_cycle.to_dict()
+        if self.variants is not None:
             out["governing_variant"] = self.variants.governing
             out["variants"] = self.variants.to_dict()
         return jsonable(out)
