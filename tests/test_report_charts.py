@@ -334,3 +334,71 @@ def test_transient_charts_carry_their_end_time(intermediate):
     for d in drawings:
         _assert_readable(d)
         assert len(_tick_labels(d, "x")) >= 3
+
+
+# --- the footer: long project names wrap, never cut ---------------------------------------------
+def _foot_width(text: str) -> float:
+    from shaftcheck.report.document import FOOT_SIZE
+
+    return stringWidth(text, "Helvetica", FOOT_SIZE)
+
+
+@pytest.mark.parametrize("words", [True, False])
+def test_the_longest_design_file_footer_wraps_without_a_cut(words, monkeypatch):
+    """The longest name, revision and date the loader takes (the limits table), in '@', the
+    widest Latin-1 glyph of Helvetica: every character stays, on lines that fit."""
+    from shaftcheck.model.limits import TABLES
+    from shaftcheck.report import document
+
+    project = next(t for t in TABLES if t.schema == "project")
+    n_name, n_rev, n_date = (project.key(k).max_length for k in ("name", "revision", "date"))
+    name = ("@@@@@@@ " * n_name)[:n_name] if words else "@" * n_name
+    text = f"{name} - rev {'@' * n_rev} - {'@' * n_date}"
+    calls = []
+    real = document.stringWidth
+    monkeypatch.setattr(document, "stringWidth",
+                        lambda t, f, s, *a: calls.append(len(t)) or real(t, f, s, *a))
+    lines, bottom = document.footer_layout(text, "0123456789ab")
+    assert 3 <= len(lines) <= document.FOOT_MAX_LINES
+    assert not any(line.endswith("...") for line in lines)
+    full = 595.2756 - 2 * st.MARGIN
+    assert all(_foot_width(line) <= full + 1e-6 for line in lines)
+    assert _foot_width(lines[0]) < full - _foot_width("SHA-256 0123456789ab   page 1 of 1")
+    assert "".join(lines).replace(" ", "") == text.replace(" ", "")  # nothing lost
+    if words:
+        assert " ".join(lines).split() == text.split()  # broken at spaces only
+    assert bottom == pytest.approx(st.BOTTOM_MARGIN + (len(lines) - 1) * document.FOOT_LEADING)
+    assert len(calls) <= len(lines) * (2 + math.ceil(math.log2(len(text)))) + 2
+
+
+def test_a_short_footer_stays_one_line_at_the_usual_margin():
+    from shaftcheck.report import document
+
+    lines, bottom = document.footer_layout("Wren - rev B - 2026-01-15", "0123456789ab")
+    assert lines == ["Wren - rev B - 2026-01-15"] and bottom == st.BOTTOM_MARGIN
+
+
+def test_a_long_project_name_is_in_every_page_footer(intermediate):
+    import dataclasses
+    import io
+
+    from pypdf import PdfReader
+
+    from shaftcheck.report.document import build_pdf
+
+    design = intermediate.design
+    name = " ".join(f"Wren{i:03d} front halfshaft programme" for i in range(6))[:200]
+    result = dataclasses.replace(intermediate, design=dataclasses.replace(
+        design, project=dataclasses.replace(design.project, name=name)))
+    pages = PdfReader(io.BytesIO(build_pdf(result))).pages
+    for i, page in enumerate(pages, start=1):
+        low = []
+
+        def visit(text, cm, tm, font, size, low=low):
+            if text.strip():
+                low.append(tm[5] * cm[3] + cm[5])
+
+        flat = " ".join(page.extract_text(visitor_text=visit).split())
+        assert name in flat, (i, flat[-400:])
+        assert f"page {i} of {len(pages)}" in flat
+        assert min(low) >= 0.5 * st.BOTTOM_MARGIN - 1  # the last footer line stays off the edge

@@ -31,6 +31,13 @@ from shaftcheck.report.torque import torque_steer
 from shaftcheck.report.variants import variants
 
 FOOT_SIZE = 7.0
+#: line pitch of the footer's left text when it wraps [pt]
+FOOT_LEADING = 8.5
+#: most lines of the footer's left text; the longest name, revision and date a design file
+#: takes need at most 5 (a longer text from the Python API ends its last line with '...')
+FOOT_MAX_LINES = 6
+#: widest page label a report is laid out for (the page count is known only after the build)
+_WIDEST_PAGE = "page 9999 of 9999"
 
 
 def _fit(text: str, width: float) -> str:
@@ -57,8 +64,44 @@ def _fit(text: str, width: float) -> str:
     return text[:fits].rstrip() + "..."
 
 
-def _footer_canvas(left_text: str, sha_short: str):
-    """A canvas class that draws the footer with 'page N of M' once the page count is known."""
+def _longest_prefix(text: str, width: float) -> int:
+    """Length of the longest prefix of ``text`` that fits ``width`` points (bisection: about
+    log2(len(text)) measurements)."""
+    fits, too_long = 0, len(text) + 1
+    while too_long - fits > 1:
+        mid = (fits + too_long) // 2
+        if stringWidth(text[:mid], "Helvetica", FOOT_SIZE) <= width:
+            fits = mid
+        else:
+            too_long = mid
+    return fits
+
+
+def _footer_lines(text: str, first_width: float, width: float,
+                  max_lines: int = FOOT_MAX_LINES) -> list[str]:
+    """The footer's left text wrapped at spaces: the first line ``first_width`` points wide
+    (beside the page label), the others ``width``. Never cut while it fits ``max_lines`` lines;
+    a longer text's last line is shortened with '...' (:func:`_fit`, called once). A word
+    longer than a line is broken. Measurements: about log2(len(text)) per line."""
+    lines: list[str] = []
+    rest = text
+    while True:
+        room = first_width if not lines else width
+        last = len(lines) == max_lines - 1
+        if last or stringWidth(rest, "Helvetica", FOOT_SIZE) <= room:
+            lines.append(_fit(rest, room))
+            return lines
+        n = max(_longest_prefix(rest, room), 1)
+        space = rest.rfind(" ", 0, n + 1)
+        cut = space if space > 0 else n
+        lines.append(rest[:cut].rstrip())
+        rest = rest[cut:].lstrip()
+
+
+def _footer_canvas(lines: list[str], sha_short: str, rule_y: float):
+    """A canvas class that draws the footer with 'page N of M' once the page count is known:
+    a rule at ``rule_y`` [pt], the left text's ``lines`` below it, the first beside the SHA-256
+    and page label."""
 
     class FooterCanvas(Canvas):
         def __init__(self, *args, **kwargs):
@@ -71,32 +114,37 @@ def _footer_canvas(left_text: str, sha_short: str):
 
         def save(self):
             total = len(self._pending)
-            # the left text is fitted once, beside the widest page label of this document
-            widest = f"SHA-256 {sha_short}   page {total} of {total}"
-            room = A4[0] - 2 * st.MARGIN - stringWidth(widest, "Helvetica", FOOT_SIZE) - 12
-            left = _fit(left_text, room)
             for state in self._pending:
                 self.__dict__.update(state)
-                self._draw_footer(total, left)
+                self._draw_footer(total)
                 super().showPage()
             super().save()
 
-        def _draw_footer(self, total: int, left: str):
+        def _draw_footer(self, total: int):
             w, _ = A4
-            y = st.BOTTOM_MARGIN - 9
+            y = rule_y - 9
             self.saveState()
             self.setStrokeColor(st.RULE)
             self.setLineWidth(0.5)
-            self.line(st.MARGIN, y + 9, w - st.MARGIN, y + 9)
+            self.line(st.MARGIN, rule_y, w - st.MARGIN, rule_y)
             self.setFont("Helvetica", FOOT_SIZE)
             self.setFillColor(st.MUTED)
             page = f"page {self._pageNumber} of {total}"
-            right = f"SHA-256 {sha_short}   {page}"
-            self.drawString(st.MARGIN, y, left)
-            self.drawRightString(w - st.MARGIN, y, right)
+            self.drawRightString(w - st.MARGIN, y, f"SHA-256 {sha_short}   {page}")
+            for k, line in enumerate(lines):
+                self.drawString(st.MARGIN, y - k * FOOT_LEADING, line)
             self.restoreState()
 
     return FooterCanvas
+
+
+def footer_layout(left_text: str, sha_short: str) -> tuple[list[str], float]:
+    """(lines of the footer's left text, bottom margin [pt]): the margin grows by one line pitch
+    per extra line, so a wrapped footer never runs into the page edge or the text above."""
+    full = A4[0] - 2 * st.MARGIN
+    label = stringWidth(f"SHA-256 {sha_short}   {_WIDEST_PAGE}", "Helvetica", FOOT_SIZE)
+    lines = _footer_lines(left_text, full - label - 12, full)
+    return lines, st.BOTTOM_MARGIN + (len(lines) - 1) * FOOT_LEADING
 
 
 class _ReportTemplate(SimpleDocTemplate):
@@ -138,14 +186,14 @@ def build_pdf(result, changes=None) -> bytes:
     p = result.design.project
     name, rev = st.clean(p.name), st.clean(p.revision)
     buf = io.BytesIO()
+    sha = result.design.sha256 or "-"
+    lines, bottom = footer_layout(f"{name} - rev {rev} - {st.clean(p.date)}", sha[:12])
     doc = _ReportTemplate(
         buf, pagesize=A4, leftMargin=st.MARGIN, rightMargin=st.MARGIN,
-        topMargin=st.TOP_MARGIN, bottomMargin=st.BOTTOM_MARGIN, invariant=1,
+        topMargin=st.TOP_MARGIN, bottomMargin=bottom, invariant=1,
         title=f"{name} - rev {rev} - halfshaft release report", author=st.clean(p.author),
         subject="front halfshaft release report", creator="shaftcheck")
-    sha = result.design.sha256 or "-"
-    doc.build(story(result, changes), canvasmaker=_footer_canvas(
-        f"{name} - rev {rev} - {st.clean(p.date)}", sha[:12]))
+    doc.build(story(result, changes), canvasmaker=_footer_canvas(lines, sha[:12], bottom))
     return buf.getvalue()
 
 
