@@ -8,12 +8,22 @@ help texts through ``typer.testing.CliRunner``.
 
 from __future__ import annotations
 
+import dataclasses
 import json
 import math
 import re
+import subprocess
 
 import pytest
-from conftest import INTERMEDIATE, ROOT, TUBULAR, load_dict, run_cli, write_modified
+from conftest import (
+    INTERMEDIATE,
+    ROOT,
+    SHAFTCHECK_CMD,
+    TUBULAR,
+    load_dict,
+    run_cli,
+    write_modified,
+)
 from typer.testing import CliRunner
 
 from shaftcheck.cli import app
@@ -234,7 +244,7 @@ SMOKE = {
     "size": ["size", TUBULAR, "--side", "left", "--json"],
     "bearing": ["bearing", INTERMEDIATE, "--json"],
     "sweep": ["sweep", TUBULAR, "--travel-step", "40", "--rack-step", "50", "--json"],
-    "pull": ["pull", TUBULAR, "--json"],
+    "torque-steer": ["torque-steer", TUBULAR, "--json"],
     "tolerance": ["tolerance", TUBULAR, "-n", "200", "--json"],
     "materials": ["materials", "--json"],
 }
@@ -248,6 +258,48 @@ def test_json_commands_run_on_the_examples(name):
     assert data
     json.dumps(data, allow_nan=False)
     assert "Traceback" not in proc.stderr
+
+
+# --- torque-steer ---------------------------------------------------------------------------------
+def test_torque_steer_prints_the_check_cells_of_check():
+    """The text output's check rows are the ones ``check`` prints (same ids, values, limits and
+    verdicts through the shared check cells), at most 80 columns, with the caution."""
+    import os
+
+    from shaftcheck.output.console import check_cells
+    from shaftcheck.studies.result import Check
+
+    env = {**os.environ, "COLUMNS": "80"}
+    proc = subprocess.run([*SHAFTCHECK_CMD, "torque-steer", str(TUBULAR)], capture_output=True,
+                          text=True, cwd=ROOT, env=env, timeout=120)
+    assert proc.returncode in (0, 1), proc.stderr
+    lines = proc.stdout.splitlines()
+    assert max(len(line) for line in lines) <= 80
+    data = json.loads(run_cli("torque-steer", TUBULAR, "--json").stdout)
+    checks = [c for c in data["checks"] if c["id"].startswith("steering_wheel_torque")]
+    assert checks
+    fields = {f.name for f in dataclasses.fields(Check)}
+    for c in checks:
+        obj = Check(**{k: v for k, v in c.items() if k in fields})
+        value, limit, unit = check_cells(obj)
+        row = [line for line in lines if line.split()[:1] == [c["id"]]]
+        assert len(row) == 1, (c["id"], proc.stdout)
+        words = row[0].split()
+        assert words[2:6] == [value, *limit.split(), unit], row[0]
+        assert row[0].rstrip().endswith("met" if c["passed"] else "NOT MET")
+    assert "Caution:" in proc.stdout and proc.stderr == ""
+
+
+def test_old_pull_name_is_a_hidden_alias_with_a_note():
+    """The old command name runs the same study for one release, with a note on stderr, and is
+    left out of the help."""
+    old = run_cli("pull", TUBULAR, "--json")
+    new = run_cli("torque-steer", TUBULAR, "--json")
+    assert old.returncode == new.returncode and old.returncode in (0, 1), old.stderr
+    assert json.loads(old.stdout) == json.loads(new.stdout)
+    assert "'pull' is now 'torque-steer'" in old.stderr and "Traceback" not in old.stderr
+    assert new.stderr == ""
+    assert "pull" not in COMMANDS and "torque-steer" in COMMANDS
 
 
 def test_sweep_json_shape():

@@ -375,75 +375,99 @@ def _signed(x: float, decimals: int) -> str:
     return f"{r:+.{decimals}f}"
 
 
+#: decimals of a steering-axis moment and of a steering-wheel torque [N*m] in the torque-steer
+#: tables; a steering-wheel torque that rounds to 0 at these decimals prints as 0.000
+MOMENT_DECIMALS, WHEEL_DECIMALS = 1, 3
+
+
+def _verdict_style(rows: list, col: int):
+    def style(r, i):
+        return VERDICT_STYLE.get(rows[r][col]) if i == col else None
+
+    return style
+
+
 def print_torque_steer(ts, transient=None, checks=()) -> None:
-    """The torque-steer study (a TorqueSteerResult, SI) in trade units, at most 80 columns:
-    budget by mechanism, worst cases, split friction, transient and the study's checks."""
-    import textwrap
-
-    def line(text: str = "") -> None:
-        console.print(text, markup=False, highlight=False, soft_wrap=True)
-
-    def row(label, values, decimals=1, width=36):
-        cells = "".join(f"{_signed(v, d):>9}" for v, d in zip(values, decimals, strict=True))
-        line(f"  {label:<{width}}{cells}")
-
-    for text in textwrap.wrap(
-            f"Torque steer at the design torque {ts.design_torque:.0f} N*m per side. Moments "
-            "about the steering axes in N*m, positive steers left; \"wheel\" is the "
-            "steering-wheel torque, the pull felt at the wheel, positive to the left (no "
-            "friction, no assistance).", 78):
-        line(text)
-    line()
-    line(f"  {'budget at the design position':<36}{'left':>9}{'right':>9}{'net':>9}"
-         f"{'wheel':>9}")
+    """The torque-steer study (a TorqueSteerResult, SI) in trade units, by the width rules of
+    :mod:`shaftcheck.output.layout`: budget by mechanism, worst cases, split friction, transient
+    and the study's checks (the same check cells as ``check``), then the caution."""
+    md, wd = MOMENT_DECIMALS, WHEEL_DECIMALS
+    print_text(console, f"Torque steer at the design torque {ts.design_torque:.0f} N*m per "
+               "side. Moments about the steering axes [N*m], positive steers left; wheel: the "
+               "steering-wheel torque [N*m], the pull felt at the wheel, positive = pull "
+               "towards a left turn (no friction, no assistance).", hanging="")
+    print_lines(console, [""])
+    rows = []
     for m in (*ts.mechanisms, ts.all_mechanisms):
-        label = "all mechanisms" if m.key == "all" else m.short_label
-        row(label, (m.left, m.right, m.net, m.steering_wheel), (1, 1, 1, 3))
-    row("ideal joints, rigid mounts (headline)", (ts.left.total, ts.right.total,
-                                                  ts.left.total + ts.right.total,
-                                                  ts.steering_wheel_torque), (1, 1, 1, 3))
+        rows.append(["all mechanisms" if m.key == "all" else m.short_label,
+                     _signed(m.left, md), _signed(m.right, md), _signed(m.net, md),
+                     _signed(m.steering_wheel, wd)])
+    rows.append(["ideal joints, rigid mounts (headline)", _signed(ts.left.total, md),
+                 _signed(ts.right.total, md), _signed(ts.left.total + ts.right.total, md),
+                 _signed(ts.steering_wheel_torque, wd)])
+    print_table(console, "", [Col("budget at the design position", key=True),
+                              Col("left", "right"), Col("right", "right"), Col("net", "right"),
+                              Col("wheel", "right")], rows)
     mounts = next((m for m in ts.mechanisms if m.roll_angle is not None), None)
     if mounts is not None:
-        line(f"  powertrain roll angle on its mounts at design: "
-             f"{_signed(math.degrees(mounts.roll_angle), 3)} deg")
-    line(f"  rack force at design (headline): {_signed(ts.rack_force, 1)} N")
-    line()
-    line(f"  {'worst case at design torque':<30}{'wheel N*m':>10}  {'where':<22}dominant")
+        print_text(console, "powertrain roll angle on its mounts at design: "
+                   f"{_signed(math.degrees(mounts.roll_angle), 3)} deg", indent="  ")
+    print_text(console, f"rack force at design (headline): {_signed(ts.rack_force, 1)} N",
+               indent="  ")
+
+    print_lines(console, [""])
+    rows = []
+    below = 0.5 * 10.0**-wd
     for w in ts.worst_cases:
-        if round(w.steering_wheel_torque, 3) == 0.0:
-            line(f"  {w.condition:<30}{_signed(0.0, 3):>10}  below 0.0005 N*m everywhere")
-            continue
-        line(f"  {w.condition:<30}{_signed(w.steering_wheel_torque, 3):>10}  {w.where:<22}"
-             f"{w.short_dominant}")
+        if round(w.steering_wheel_torque, wd) == 0.0:
+            rows.append([w.condition, _signed(0.0, wd), f"below {below:g} N*m everywhere", "-"])
+        else:
+            rows.append([w.condition, _signed(w.steering_wheel_torque, wd), w.where,
+                         w.short_dominant])
+    print_table(console, "worst case at the design torque", [
+        Col("condition", key=True), Col("wheel N*m", "right"), Col("where"),
+        Col("dominant mechanism")], rows)
+
     sm = ts.split_mu
     if sm is not None:
         tbr = "locked" if math.isinf(sm.torque_bias_ratio) else f"TBR {sm.torque_bias_ratio:g}"
-        line()
-        line(f"  split friction (mu {sm.mu_low:g} / {sm.mu_high:g}, {tbr}), design position:")
-        for c in sm.cases:
-            line(f"    low friction {c.low_side:<5}: wheel torques {c.torque_left:.0f} / "
-                 f"{c.torque_right:.0f} N*m, steering wheel "
-                 f"{_signed(c.steering_wheel_torque, 3)} N*m")
+        print_lines(console, [""])
+        rows = [[c.low_side, f"{c.torque_left:.0f}", f"{c.torque_right:.0f}",
+                 _signed(c.steering_wheel_torque, wd)] for c in sm.cases]
+        print_table(console, f"split friction (mu {sm.mu_low:g} / {sm.mu_high:g}, {tbr}), design "
+                    "position", [Col("low-friction side", key=True),
+                                 Col("left wheel N*m", "right"), Col("right wheel N*m", "right"),
+                                 Col("wheel N*m", "right")], rows)
+
     if transient is not None:
         tr = transient
         diff, t_diff = tr.peak(tr.torque_difference)
         sw, t_sw = tr.peak(tr.steering_wheel_torque)
-        line()
-        line(f"  transient ({tr.differential} differential, {tr.end_time * 1e3:.0f} ms after "
-             f"a {tr.carrier_torque:.0f} N*m step at the carrier):")
-        line(f"    peak wheel-torque difference {abs(diff):.2f} N*m at {t_diff * 1e3:.0f} ms; "
-             f"peak steering-wheel")
-        line(f"    torque {_signed(sw, 3)} N*m at {t_sw * 1e3:.0f} ms")
-        for text in textwrap.wrap(tr.statement, 76):
-            line(f"    {text}")
+        print_lines(console, [""])
+        print_text(console, f"transient ({tr.differential} differential, 0 to "
+                   f"{tr.end_time * 1e3:.0f} ms after a {tr.carrier_torque:.0f} N*m step at "
+                   f"the carrier): peak wheel-torque difference {fmt_number(abs(diff), 'N*m')} "
+                   f"N*m at {t_diff * 1e3:.0f} ms; peak steering-wheel torque "
+                   f"{_signed(sw, wd)} N*m at {t_sw * 1e3:.0f} ms.", hanging="")
+        if tr.statement:
+            print_text(console, tr.statement, indent="  ", hanging="  ")
+
     if checks:
-        line()
+        print_lines(console, [""])
+        rows, details = [], []
         for c in checks:
-            verdict = "met" if c.passed else "NOT MET"
-            line(f"  {c.id:<32}{c.value:>8.3f} <= {c.limit:g} {c.unit:<5} {verdict}")
-            for text in textwrap.wrap(c.location, 72):
-                line(f"      {text}")
-    console.print(CAUTION_LINE, style="yellow")
+            value, limit, unit = check_cells(c)
+            rows.append([short_id(c), c.side, value, limit, unit, fmt_margin(c.margin),
+                         "met" if c.passed else "NOT MET"])
+            details.append(c.location or None)
+        print_table(console, "checks", [
+            Col("check", key=True), Col("side"), Col("value", "right", gap=1),
+            Col("limit", "right", gap=1), Col("unit", gap=1), Col("margin", "right"),
+            Col("verdict")], rows, details=details, style=_verdict_style(rows, 6))
+        print_text(console, "value: the largest |steering-wheel torque| of the condition; the "
+                   "indented line says where and the dominant mechanism. margin as in check.",
+                   hanging="  ", style="dim")
+    print_caution()
 
 
 def share_pct(fraction: float) -> str:
