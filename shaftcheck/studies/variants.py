@@ -13,7 +13,7 @@ margin (:attr:`Check.margin`, docs/methods.md §16.1): the worst against the lim
 first in file order, the base design first. The governing case of the whole design is the one
 holding the smallest margin of all its checks; its study results (sides, kinematics, strength,
 torque steer, ...) stand for the design in :class:`Result` and the report's detail sections.
-Method statement: docs/methods.md §18. No I/O.
+Method statement: docs/methods.md §16.5. No I/O.
 """
 
 from __future__ import annotations
