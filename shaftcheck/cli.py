@@ -473,6 +473,9 @@ def report(design: Path = DesignArg,
         from shaftcheck.studies.changes import changes_between
 
         changes = changes_between(old, d, new_result=result, evaluator=evaluate, transient=True)
+    from shaftcheck.studies.tolerance import with_tolerance
+
+    result = with_tolerance(result)  # the report's tolerance section: fixed seed and samples
     write_report(result, output, overwrite=overwrite, changes=changes)
     verdict = "all checks met" if result.verdict == "pass" else \
         f"{len(result.failed)} check(s) NOT met"

@@ -27,6 +27,7 @@ from shaftcheck.report.signoff import signoff
 from shaftcheck.report.stiffness import stiffness
 from shaftcheck.report.strength import strength
 from shaftcheck.report.summary import summary
+from shaftcheck.report.tolerance import tolerance
 from shaftcheck.report.torque import torque_steer
 from shaftcheck.report.variants import variants
 
@@ -165,7 +166,8 @@ def story(result, changes=None) -> list:
         from shaftcheck.report.changes import changes_section
 
         out += changes_section(changes)
-    for part in (stiffness, geometry, strength, torque_steer, inputs, methods, cautions):
+    for part in (stiffness, geometry, strength, torque_steer, tolerance, inputs, methods,
+                 cautions):
         out += _page(part, result)
     return out
 
