@@ -1,0 +1,94 @@
+"""Benchmark: ten variants of an example checked against the example alone (target: at most 3x).
+
+Run: python tests/benchmarks/bench_variants.py   (prints figures; not a test)
+
+The ten variants change the engine torque, gear ratios, tyre friction, axle load, top speed and
+the differential; the geometry is the example's, so it is solved once for all eleven cases (base
+and ten variants). Two measures:
+
+* in-process: ``evaluate`` of the example against ``evaluate_variants`` of the line, each after
+  a warm-up, best of several runs (the machine is shared: the best run is the least disturbed);
+* end to end: ``shaftcheck check`` of each file (interpreter start and imports included), median.
+"""
+
+from __future__ import annotations
+
+import statistics
+import subprocess
+import sys
+import tempfile
+import time
+import tomllib
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[2]
+sys.path.insert(0, str(ROOT))
+sys.path.insert(0, str(ROOT / "tests"))
+
+from conftest import toml_dumps  # noqa: E402
+
+from shaftcheck.io.design_file import load_design  # noqa: E402
+from shaftcheck.studies.evaluate import evaluate  # noqa: E402
+from shaftcheck.studies.variants import evaluate_variants  # noqa: E402
+
+RUNS = 7
+TARGET = 3.0
+
+
+def ten_variants() -> list[dict]:
+    """Ten invented variants (values inside the typical ranges)."""
+    out = []
+    for i in range(10):
+        v = {"name": f"v{i:02d}",
+             "vehicle": {"tyre_mu": 0.95 + 0.02 * i, "front_axle_load_n": 7800.0 + 120.0 * i,
+                         "max_speed_kmh": 175.0 + 4.0 * i},
+             "powertrain": {"engine_torque_nm": 150.0 + 15.0 * i,
+                            "first_gear_ratio": 3.3 + 0.05 * i}}
+        if i % 4 == 3:
+            v["powertrain"].update(differential="limited_slip", torque_bias_ratio=1.8)
+        out.append(v)
+    return out
+
+
+def best(fn) -> float:
+    fn()
+    times = []
+    for _ in range(RUNS):
+        t0 = time.perf_counter()
+        fn()
+        times.append(time.perf_counter() - t0)
+    return min(times)
+
+
+def median_cli(path: Path) -> float:
+    times = []
+    for _ in range(RUNS):
+        t0 = time.perf_counter()
+        subprocess.run([sys.executable, "-m", "shaftcheck", "check", str(path)], cwd=ROOT,
+                       stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+        times.append(time.perf_counter() - t0)
+    return statistics.median(times)
+
+
+def main() -> None:
+    for example in ("wren_intermediate", "wren_tubular"):
+        src = ROOT / "example_designs" / f"{example}.toml"
+        with open(src, "rb") as fh:
+            data = tomllib.load(fh)
+        data["variants"] = ten_variants()
+        with tempfile.TemporaryDirectory() as tmp:
+            line = Path(tmp) / f"{example}_line.toml"
+            line.write_text(toml_dumps(data), encoding="utf-8")
+            one, many = load_design(src), load_design(line)
+            t1 = best(lambda d=one: evaluate(d))
+            t10 = best(lambda d=many: evaluate_variants(d))
+            c1, c10 = median_cli(src), median_cli(line)
+        print(f"{example}: in-process  one {t1 * 1e3:7.1f} ms, base + 10 variants "
+              f"{t10 * 1e3:7.1f} ms, ratio {t10 / t1:4.2f} (target <= {TARGET:g}), best of {RUNS}")
+        print(f"{example}: check (CLI) one {c1 * 1e3:7.1f} ms, base + 10 variants "
+              f"{c10 * 1e3:7.1f} ms, ratio {c10 / c1:4.2f} (target <= {TARGET:g}), median of "
+              f"{RUNS}")
+
+
+if __name__ == "__main__":
+    main()
