@@ -1,4 +1,5 @@
-"""Basic rating life of a roller bearing against a published worked solution.
+"""Basic rating life (roller and deep-groove ball bearings) and the ISO 281 X, Y factors of a
+deep-groove ball bearing against published worked solutions.
 
 Source: R. G. Budynas & J. K. Nisbett, *Shigley's Mechanical Engineering Design*, 8th ed.
 (McGraw-Hill, 2008), Instructor's Solutions Manual, Problem 11-3 (solution p. 290): a straight
