@@ -13,9 +13,13 @@ revolutions, seconds or metres (the caller converts to hours and km).
   part) and the halfshaft's transverse force F_O on the intermediate shaft. The shaft is a beam on
   two simple supports, the differential output point (s = 0) and the bearing (s = length -
   bearing_offset), with the loads at the overhang end (s = length): statics give both reactions.
-* Life: ISO 281 basic rating life L10 = (C/P)^p 10^6 rev, p = 3 ball, 10/3 roller; variable load
-  P = (sum P_i^p n_i / sum n_i)^(1/p) with n_i the revolutions at P_i (ISO 281 and bearing-maker
-  catalogue practice, from memory [M], key ``iso281_l10``).
+* Weight and axial forces (docs/methods.md §5.2): segment weights on the same beam; plunge
+  friction mu T/R and a tripod's third-order generated axial force mu T/(3R) (Coulomb friction
+  on contacts carrying T/R in all, project derivation, key ``joint_axial_force``).
+* Life: ISO 281 basic rating life L10 = (C/P)^p 10^6 rev, p = 3 ball, 10/3 roller; P = X Fr +
+  Y Fa of a deep-groove ball bearing (key ``iso281_xy``); mean load of a duty
+  P_m = (sum t_i n_i P_i^p / sum t_i n_i)^(1/p) (bearing-maker practice, [M], key
+  ``iso281_l10``); minimum load 0.01 C (key ``bearing_minimum_load``).
 """
 
 from __future__ import annotations
@@ -143,7 +147,8 @@ class BearingLoad(NamedTuple):
     bearing_force (..., 3) [N]: force of the bearing on the shaft (radial, perpendicular to the
     axis). output_force (..., 3) [N]: radial force of the differential output support on the
     shaft. bearing_radial [N], output_radial [N]: their magnitudes. axial_force [N]: the axial
-    part of the joint force along the output axis (to the axial locating bearing; not in P).
+    part of the joint force along the output axis, signed (the study adds it to the bearing's
+    axial load, docs/methods.md §5.2).
     couple [N*m]: transverse moment the inboard joint puts on the intermediate shaft.
     """
 
@@ -283,9 +288,10 @@ def duty_mean_load(loads, time_share, speed, exponent: float = BALL_LIFE_EXPONEN
     """Mean equivalent load of a duty cycle [N]: P_m = (sum t_i n_i P_i^p / sum t_i n_i)^(1/p).
 
     loads P_i [N], time_share t_i [-] (any scale), speed n_i [rad/s or rev/s, any consistent
-    unit]; the revolutions at P_i are t_i n_i. ISO 281 / bearing-maker catalogue method for
-    variable load and speed (for example the SKF Rolling bearings catalogue, "Equivalent mean
-    load"; key ``iso281_l10``). Equal to :func:`equivalent_load` with n_i = t_i n_i.
+    unit]; the revolutions at P_i are t_i n_i. Bearing makers' method for stepped load and
+    speed (catalogue sections such as "Average of fluctuating load": loads F_i at speeds n_i for
+    times t_i, p = 3 for ball bearings; the equation itself from memory [M], key
+    ``iso281_l10``). Equal to :func:`equivalent_load` with n_i = t_i n_i.
     """
     t = np.asarray(time_share, float)
     n = np.asarray(speed, float)

@@ -227,8 +227,10 @@ REFERENCES: dict[str, Reference] = {
         "life L10 = (C/P)^p 10^6 revolutions, p = 3 ball, 10/3 roller; mean load of a "
         "variable duty P_m = (sum t_i n_i P_i^p / sum t_i n_i)^(1/p), t_i time share, n_i "
         "speed, as in bearing makers' catalogues", "M", "§5.3",
-        "edition, clause and the mean-load definition not checked in the standard; the life "
-        "equation is confirmed by the worked solutions of Shigley's 8th ed. (tests/validation)"),
+        "edition, clause and the mean-load definition not checked in the standard (a maker's "
+        "handbook page confirms the inputs F_i, n_i, t_i and p = 3, not the equation); the "
+        "life equation is confirmed by the worked solutions of Shigley's 8th ed. "
+        "(tests/validation)"),
     "iso281_xy": Reference(
         "ISO 281:2007, Table 3: X = 0.56 and e, Y of single-row deep-groove ball bearings, "
         "tabulated against Fa/C0 in R. G. Budynas & J. K. Nisbett, Shigley's Mechanical "
