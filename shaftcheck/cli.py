@@ -70,6 +70,9 @@ OPTION_RANGES: dict[str, tuple[float, float, str]] = {
     "--top": (1, 1000, ""),
     "-n": (100, 10_000_000, ""),  # = shaftcheck.studies.tolerance.MAX_SAMPLES
     "--seed": (0, 2**32 - 1, ""),
+    "--distance-km": (0.001, 1.0e5, "km"),  # = [loads] history_distance_km
+    "--life-km": (100.0, 1.0e7, "km"),  # = [loads] design_life_km
+    "--bins": (1, 24, ""),  # = methods.rainflow_cycles.RANGE_BINS_MAX
 }
 #: travel x rack poses of one grid (check, sweep): bounds time (about 6 s) and memory
 MAX_GRID_POSES = 100_000
@@ -511,6 +514,69 @@ def diff(old: Path = typer.Argument(..., help="Design file of the earlier revisi
 
         print_diff(changes)
     raise typer.Exit(1 if changes.worse else 0)
+
+
+@app.command()
+@guarded
+def spectrum(history: Path = typer.Argument(..., show_default=False, help="Time history "
+                                            "(CSV, header row with units: time_s, "
+                                            "torque_left_nm, torque_right_nm; optional "
+                                            "travel_left_mm, travel_right_mm, rack_mm)."),
+             distance_km: float | None = typer.Option(None, "--distance-km", help="Distance "
+                                                      "driven while recording \\[km]."),
+             life_km: float | None = typer.Option(None, "--life-km", help="Design-life distance "
+                                                  "\\[km]: the history is repeated life / "
+                                                  "distance times."),
+             bins: int = typer.Option(8, "--bins", help="Torque-range bins (1 to 24; 4 mean "
+                                      "bins)."),
+             toml: str | None = typer.Option(None, "--toml", help="Write the "
+                                             "\\[\\[loads.spectrum]] block to this file."),
+             chart: str | None = typer.Option(None, "--chart", help="Write a histogram of the "
+                                              "counted cycles (.pdf; .png needs reportlab's "
+                                              "renderPM backend)."),
+             overwrite: bool = typer.Option(False, help="Allow --toml/--chart to replace a "
+                                            "file."),
+             json_: bool = JsonOpt):
+    """Rainflow-count a measured torque history (ASTM E1049-85) into \\[\\[loads.spectrum]] bins.
+
+    Example: shaftcheck spectrum history.csv --distance-km 12 --life-km 240000
+    """
+    for option, value in (("--distance-km", distance_km), ("--life-km", life_km),
+                          ("--bins", bins)):
+        _within(option, value)
+    if (distance_km is None) != (life_km is None):
+        _fail("--distance-km and --life-km go together (the scale-up is life / distance)")
+    from shaftcheck.output.files import check_target, shown, write_bytes_atomic, write_text_atomic
+
+    fmt = None if chart is None else Path(chart).suffix.lower().lstrip(".")
+    if fmt not in (None, "pdf", "png"):
+        _fail(f"--chart = {chart!r}: the name must end in .pdf or .png")
+    for target in (toml, chart):
+        if target is not None:
+            check_target(target, overwrite=overwrite)
+    if fmt == "png":
+        from shaftcheck.report.duty_cycle import png_available
+
+        if not png_available():
+            _fail("--chart: PNG needs reportlab's renderPM backend (rlPyCairo), not installed "
+                  "here; write a .pdf chart")
+    from shaftcheck.studies.duty_cycle import read_spectrum
+
+    res = read_spectrum(history, distance_km, life_km, bins)
+    if toml is not None:
+        from shaftcheck.output.spectrum_table import spectrum_toml
+
+        write_text_atomic(toml, spectrum_toml(res), overwrite=overwrite)
+    if chart is not None:
+        from shaftcheck.report.duty_cycle import chart_bytes
+
+        write_bytes_atomic(chart, chart_bytes(res, fmt), overwrite=overwrite)
+    if json_:
+        _print_json(res.to_dict())
+    else:
+        from shaftcheck.output.spectrum_table import print_spectrum
+
+        print_spectrum(res, toml and shown(toml), chart and shown(chart))
 
 
 @app.command()

@@ -12,7 +12,7 @@ import json
 import re
 
 import pytest
-from conftest import INTERMEDIATE, TUBULAR, run_cli
+from conftest import EXAMPLES, INTERMEDIATE, TUBULAR, run_cli
 from rich.console import Console
 
 from shaftcheck.cli import app
@@ -45,6 +45,9 @@ RUNS = [
     ("new", ["new", "x.toml"], (0,), False),
     ("report", ["report", TUBULAR, "-o", "r.pdf"], (0, 1), True),
     ("diff", ["diff", INTERMEDIATE, TUBULAR], (0, 1), True),
+    ("spectrum", ["spectrum", EXAMPLES / "wren_line_history.csv", "--distance-km", "10",
+                  "--life-km", "200000"], (0,), False),
+    ("check-line-history", ["check", EXAMPLES / "wren_line.toml"], (0, 1), True),
 ]
 
 

@@ -435,10 +435,6 @@ def _history(t: Table | None, base_dir: Path, tables_from: tuple):
     from shaftcheck.io.history_csv import load_history
 
     name = t.get("torque_history")
-    if t.has("spectrum"):
-        raise DesignError(t.key("torque_history"), "give either torque_history or "
-                          "[[loads.spectrum]] bins, not both (the history's counted cycles are "
-                          "the duty cycle)")
     distance = t.get("history_distance_km", required=True)
     life = t.get("design_life_km", required=True)
     if life < distance:

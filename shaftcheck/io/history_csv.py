@@ -76,20 +76,22 @@ def load_history(name: str, base_dir: Path, tables_from: tuple, key: str) -> Tor
 
 def parse_history(text: str, label: str) -> TorqueHistory:
     """Parse the CSV text of a history (module docstring) into a TorqueHistory (SI)."""
-    head, sep, body = text.partition("\n")
+    if "\r" in text:
+        text = text.replace("\r\n", "\n")
+    head, _, body = text.partition("\n")
     if not head.strip():
         raise DesignError(f"{label}:header", "the first line must be the header row "
                           "(e.g. time_s,torque_left_nm,torque_right_nm)")
-    header = _header(head.rstrip("\r"), label)
+    header = _header(head, label)
     body = body.rstrip()
     if not body:
         raise DesignError(label, "has no data rows; at least 2 are needed")
     rows = body.count("\n") + 1
     if rows > MAX_HISTORY_ROWS:
         raise DesignError(label, f"has {rows:,} data rows; at most {MAX_HISTORY_ROWS:,} are read")
-    blank = body.find("\n\n") if "\r" not in body else body.replace("\r", "").find("\n\n")
+    blank = body.find("\n\n")
     if blank >= 0:
-        n = body.replace("\r", "")[:blank].count("\n") + 2
+        n = body[:blank].count("\n") + 2
         raise DesignError(f"{label}:row {n}", "empty line (every row holds one sample)")
     try:
         data = np.loadtxt(io.StringIO(body), delimiter=",", dtype=float, comments=None,
@@ -107,7 +109,7 @@ def parse_history(text: str, label: str) -> TorqueHistory:
     if bad.any():
         n, c = np.argwhere(bad)[0]
         raise DesignError(f"{label}:row {n + 1}", f"column {header[c]}: "
-                          f"{data[n, c]!r} is not a finite number")
+                          f"{float(data[n, c])} is not a finite number")
     for name, i in col.items():
         _, lo, hi = COLUMNS[name]
         out = (data[:, i] < lo) | (data[:, i] > hi)

@@ -424,14 +424,14 @@ def miner_damage(tau_ar: Sequence[float], cycles: Sequence[float],
                        total, repeats, tuple(bool(x) for x in refused))
 
 
-def miner_sum(tau_ar, counts, line: BasquinLine) -> tuple[float, int]:
+def miner_sum(tau_ar, counts, line: BasquinLine) -> tuple[float, float]:
     """Palmgren-Miner damage D = sum n_i / N_i over many counted cycles, and the number of
     refused cycles; vectorised, without per-cycle records (for rainflow-counted histories).
 
-    Parameters: tau_ar fully reversed amplitude of each cycle [Pa]; counts n_i (0.5 for a half
-    cycle, times any repeats) [-]; the S-N line. Same rule as :func:`miner_damage` (no damage
-    at or below S_se, a cycle above the 10^3-cycle strength is refused): returns (D, refused);
-    D is NaN when any cycle with a count is refused.
+    Parameters: tau_ar fully reversed amplitude of each cycle [Pa]; counts n_i (1 for a cycle,
+    0.5 for a half cycle) [-]; the S-N line. Same rule as :func:`miner_damage` (no damage at or
+    below S_se, a cycle above the 10^3-cycle strength is refused): returns (D, refused cycles,
+    the sum of their counts); D is NaN when any cycle with a count is refused.
     Source: Miner's rule as in Shigley 9th ed. §6-16 (from memory of the section number); key
     ``shigley9_miner``.
     """
@@ -441,9 +441,9 @@ def miner_sum(tau_ar, counts, line: BasquinLine) -> tuple[float, int]:
         raise ValueError("amplitudes and counts must match and counts must be >= 0")
     live = (t > line.endurance) & (n > 0)
     if not live.any():
-        return 0.0, 0
+        return 0.0, 0.0
     life = line.life(t[live])
-    refused = int(np.count_nonzero(np.isnan(life)))
-    if refused:
-        return math.nan, refused
-    return float(np.sum(n[live] / life)), 0
+    bad = np.isnan(life)
+    if bad.any():
+        return math.nan, float(n[live][bad].sum())
+    return float(np.sum(n[live] / life)), 0.0

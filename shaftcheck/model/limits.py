@@ -496,7 +496,8 @@ TABLES: tuple[TableSpec, ...] = (
             meaning="CSV time history of the drive torque of each side (optionally wheel and "
                     "rack travel), relative to the design file's folder; its rainflow-counted "
                     "cycles are the duty cycle (columns: docs/methods.md §2.4).",
-            note="not together with spectrum; needs history_distance_km and design_life_km"),
+            note="needs history_distance_km and design_life_km; with spectrum bins as well, "
+                 "both damages are checked"),
         _num("history_distance_km", "km", (0.001, 1.0e5), (1.0, 5000.0),
              "Distance driven while the torque history was recorded.", default=OPTIONAL,
              note="required with torque_history"),

@@ -20,6 +20,7 @@ from reportlab.platypus import SimpleDocTemplate
 from shaftcheck.output.files import check_target, write_bytes_atomic
 from shaftcheck.report import styles as st
 from shaftcheck.report.blocks import Heading
+from shaftcheck.report.duty_cycle import duty_cycle
 from shaftcheck.report.geometry import geometry
 from shaftcheck.report.inputs import inputs
 from shaftcheck.report.methods import cautions, methods
@@ -166,8 +167,8 @@ def story(result, changes=None) -> list:
         from shaftcheck.report.changes import changes_section
 
         out += changes_section(changes)
-    for part in (stiffness, geometry, strength, torque_steer, tolerance, inputs, methods,
-                 cautions):
+    for part in (stiffness, geometry, strength, duty_cycle, torque_steer, tolerance, inputs,
+                 methods, cautions):
         out += _page(part, result)
     return out
 

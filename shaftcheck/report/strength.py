@@ -201,7 +201,13 @@ def strength(result) -> list:
     for e in sr.shafts:
         out += sub(f"Margins per section: {e.label} (largest load case)")
         out += section_table(e)
-    if design.spectrum:
+    history = getattr(design, "torque_history", None)
+    if design.spectrum or history is not None:
+        if history is not None:
+            out.append(para("Duty cycle from the measured torque history: the bins below "
+                            "summarise its counted cycles conservatively (their damage is an "
+                            "upper estimate); the Miner damage check sums every counted cycle "
+                            "(section 'Measured duty cycle')."))
         for members in _sn_groups(sr):
             who = " and ".join(m.label for m in members)
             out += sub(f"Duty cycle and Miner damage: {who}")

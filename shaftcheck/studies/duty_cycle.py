@@ -177,6 +177,25 @@ def spectrum_of(history, range_bins: int | None = None,
                           tuple(map(float, edges)), hist, binned)
 
 
+def read_spectrum(path, distance_km: float | None = None, life_km: float | None = None,
+                  range_bins: int | None = None) -> SpectrumResult:
+    """The ``spectrum`` command: read the history file ``path`` (any folder: the user names
+    it), set the scale-up (both distances [km] or neither) and count it."""
+    import dataclasses
+    from pathlib import Path
+
+    from shaftcheck.errors import DesignError
+    from shaftcheck.io.history_csv import read_history
+
+    history = read_history(Path(path), str(path))
+    if distance_km is not None and life_km is not None:
+        if life_km < distance_km:
+            raise DesignError("--life-km", f"= {life_km:g} km: must not be below --distance-km "
+                              f"= {distance_km:g} km")
+        history = dataclasses.replace(history, distance=distance_km * 1e3, life=life_km * 1e3)
+    return spectrum_of(history, range_bins)
+
+
 def pose_time_tables(design, history) -> dict:
     """side -> :class:`PoseTime` of a history with travel columns (module docstring)."""
     from shaftcheck.methods.rainflow_cycles import pose_time_shares

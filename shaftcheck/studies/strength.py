@@ -118,16 +118,17 @@ class HistoryDamage:
 
     location: the section with the largest damage; total: D over the design life (counted
     cycles times ``repeats``), NaN when a cycle is refused; cycles: cycles counted in the history
-    (half cycles 0.5); repeats: life / measured distance; refused: counted cycles whose
-    equivalent amplitude is above the 10^3-cycle strength; largest_amplitude: largest equivalent
-    fully reversed amplitude at that section [Pa]; endurance: its S_se [Pa]; source: the file.
+    (half cycles 0.5); repeats: life / measured distance; refused: counted cycles (half cycles
+    0.5, before the repeats) whose equivalent amplitude is above the 10^3-cycle strength;
+    largest_amplitude: largest equivalent fully reversed amplitude at that section [Pa];
+    endurance: its S_se [Pa]; source: the file.
     """
 
     location: object
     total: float
     cycles: float
     repeats: float
-    refused: int
+    refused: float
     largest_amplitude: float
     endurance: float
     source: str
@@ -266,13 +267,14 @@ def history_damage(sections, cycles, repeats: float, material, criterion: str,
 
     ssu = fg.shear_ultimate(material.ultimate_strength)
     ssy = fg.shear_yield(material.yield_strength)
-    amp, mean, n = cycles.range / 2.0, cycles.mean, cycles.count * repeats
+    amp, mean = cycles.range / 2.0, cycles.mean
     worst = None
     for s in sections:
         line = fg.torsional_sn_line(material.ultimate_strength, s.marin.shear_endurance)
         tar = fg.equivalent_reversed_amplitude(s.kfs * s.shear(amp), s.kfs * s.shear(mean),
                                                ssu, ssy, criterion)
-        total, refused = fg.miner_sum(tar, n, line)
+        total, refused = fg.miner_sum(tar, cycles.count, line)
+        total *= repeats
         top = float(tar.max()) if tar.size else 0.0
         key = (refused > 0, total if math.isfinite(total) else math.inf)
         if worst is None or key > worst[0]:
@@ -349,16 +351,20 @@ def _checks(design, e: ShaftEntry, high_is_subset: bool) -> list[Check]:
         extra = (f"bins {refused} refused: life below 10^3 cycles, outside the stress-life "
                  "method" if refused else "")
         hd = e.history_damage
-        if hd is None:
+        if hd is None or design.spectrum:
+            # the design's own bins (with a history as well: a second check, so that bins a
+            # variant gives are never ignored)
             out.append(Check(
-                f"fatigue_damage_{tag}", f"Duty-cycle damage (Miner){title}", name, dmg.total,
+                f"fatigue_damage_{tag}" if hd is None else f"fatigue_damage_bins_{tag}",
+                f"Duty-cycle damage (Miner){title}" if hd is None else
+                f"Duty-cycle damage (Miner, [[loads.spectrum]] bins){title}", name, dmg.total,
                 crit.miner_damage_max, "-", "max", _where(shaft, dmg.location),
                 "shigley9_miner", note_for(dmg.location, extra)))
-        else:
+        if hd is not None:
             extra = (f"every rainflow cycle of the measured history '{hd.source}' "
-                     f"({hd.cycles:,.1f} cycles x {hd.repeats:.4g} repeats)")
+                     f"({hd.cycles:,.1f} cycles x {hd.repeats:,.6g} repeats)")
             if hd.refused:
-                extra += (f"; {hd.refused} counted cycles refused: life below 10^3 cycles, "
+                extra += (f"; {hd.refused:g} counted cycles refused: life below 10^3 cycles, "
                           "outside the stress-life method")
             out.append(Check(
                 f"fatigue_damage_{tag}", f"Duty-cycle damage (Miner, measured history){title}",
@@ -404,7 +410,8 @@ def run(design, ctx) -> tuple[StrengthResult, list[Check]]:
 
     history = getattr(design, "torque_history", None)
     spectra = {name: [(b.torque_min, b.torque_max, b.cycles) for b in design.spectrum]
-               for name in SIDES} if history is None else history_spectra(history)
+               for name in SIDES} if history is None or design.spectrum \
+        else history_spectra(history)
     entries, checks = [], []
     for name, shaft, segs, material in _shafts(design):
         spectrum = spectra[name]
@@ -424,9 +431,11 @@ def run(design, ctx) -> tuple[StrengthResult, list[Check]]:
     notices = [n for e in entries for n in e.notices]
     if history is not None:
         notices.append(f"duty cycle from the measured torque history '{history.source}': Miner "
-                       f"damage of every rainflow cycle x {history.repeats:.4g} repeats "
+                       f"damage of every rainflow cycle x {history.repeats:,.6g} repeats "
                        "(design_life_km / history_distance_km); the Miner table and the "
-                       "infinite-life check use its bins")
+                       "infinite-life check use " + (
+                           "the [[loads.spectrum]] bins, whose own damage is checked as well"
+                           if design.spectrum else "the history's bins"))
     if any(s.location.where == "spline root" for e in entries for s in e.strength.sections):
         notices.append("spline roots: K_ts = K_fs = 3.0 is an estimate (Shigley 9th ed. Table "
                        "7-1 first-iteration value; no verified spline chart)")
