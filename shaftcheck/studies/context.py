@@ -172,7 +172,8 @@ class Context:
         """CornerPoses of one side over travel x rack [m] (default: the geometry grid).
 
         Every grid a study of this context uses is part of one union grid, solved once per
-        side; other values (a caller's own grid) are solved on their own and counted.
+        side; other values (a caller's own grid) are solved on their own, once per grid, and
+        counted.
         """
         travel = self.travel if travel is None else np.atleast_1d(np.asarray(travel, float))
         rack = self.rack if rack is None else np.atleast_1d(np.asarray(rack, float))
@@ -182,7 +183,10 @@ class Context:
                   and np.array_equal(ut[np.minimum(ti, ut.size - 1)], travel)
                   and np.array_equal(ur[np.minimum(rj, ur.size - 1)], rack))
         if not inside:
-            return self._solve(side, travel, rack)
+            key = (side, travel.tobytes(), rack.tobytes())
+            if key not in self._own_grids:
+                self._own_grids[key] = self._solve(side, travel, rack)
+            return self._own_grids[key].take(np.arange(travel.size), np.arange(rack.size))
         if side not in self._poses:
             self._poses[side] = self._solve(side, ut, ur)
         return self._poses[side].take(ti, rj)
@@ -236,17 +240,29 @@ class Context:
     #: what depends on the geometry alone (corner, sides, joints, criteria), not on [vehicle],
     #: [powertrain] or [loads]: a variant's context shares it (:meth:`derive`)
     GEOMETRY_VALUES = ("travel", "rack", "roll", "torque_steer_travel", "torque_steer_rack",
-                       "_union", "stiffness", "mismatch_pct", "bearings", "design_geometry")
+                       "_union", "_own_grids", "stiffness", "mismatch_pct", "bearings",
+                       "design_geometry")
+
+    @cached_property
+    def _own_grids(self) -> dict:
+        """(side, travel, rack) -> CornerPoses of the grids outside the union grid."""
+        return {}
 
     def derive(self, design) -> Context:
         """A context for ``design``, a variant of this context's design that differs only in
-        [vehicle], [powertrain] and [loads] (model.limits.VARIANT_KEYS): it shares the corner
-        poses and every geometry value (computed here first, once); its load cases are its own.
-        Its ``corner_solves`` counts only solves it makes itself (none on the shared grids)."""
-        new = Context(design, travel_points=self.travel_points, rack_points=self.rack_points)
-        for name in self.GEOMETRY_VALUES:
-            new.__dict__[name] = getattr(self, name)
+        [vehicle], [powertrain] and [loads] (model.limits.VARIANT_KEYS): it keeps this
+        context's options, shares the corner poses (of the union grid and of every other grid)
+        and every geometry value (computed here first, once); the rest (the load cases, ...) is
+        its own. Its ``corner_solves`` counts only solves it makes itself."""
+        import copy
+
         for side in SIDES:
             self.poses(side)
-        new._poses = self._poses
+        new = copy.copy(self)  # the options given to this context; the pose cache is shared
+        for name, attr in vars(Context).items():
+            if isinstance(attr, cached_property):
+                new.__dict__.pop(name, None)
+        for name in self.GEOMETRY_VALUES:
+            new.__dict__[name] = getattr(self, name)
+        new.design, new.corner_solves = design, 0
         return new
