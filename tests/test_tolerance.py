@@ -287,3 +287,35 @@ def test_report_field_and_json(tubular_design):
     assert result.tolerance.samples == 2000 and result.tolerance.seed == REPORT_SEED
     assert result.to_dict()["tolerance"]["quantities"][0]["name"] == QUANTITIES[0]
     assert REPORT_SAMPLES >= 100_000
+
+
+def test_report_section_shows_percentiles_limits_shares_and_ranking(tubular_design):
+    """The report renders the typed result: every output's row with its unit, the limit, the
+    share over it with the verdict against the criterion, and the ranking's largest share."""
+    import io
+
+    import pypdf
+
+    from shaftcheck.report.document import build_pdf
+    from shaftcheck.studies.evaluate import evaluate
+    from shaftcheck.studies.tolerance import with_tolerance
+
+    result = with_tolerance(evaluate(tubular_design), n=3000, seed=2)
+    reader = pypdf.PdfReader(io.BytesIO(build_pdf(result)))
+    text = " ".join(" ".join((p.extract_text() or "").split()) for p in reader.pages)
+    start = text.index("Manufacturing tolerances 3,000 builds sampled")
+    page = text[start:start + 6000]
+    for label in ("p0.135", "p99.865", "Limit", "Over limit", "What drives the spread",
+                  "stiffness mismatch", "inboard angle difference", "deg", "%"):
+        assert label in page, label
+    tol = result.tolerance
+    top = tol.quantities[0].shares[0]
+    assert top.input in page
+    assert f"{100 * min(top.share, 1.0):.1f} %" in page
+    mismatch = tol.quantities[0]
+    assert ("NOT MET" in page) is (not tol.passed)
+    assert f"{100 * mismatch.fraction_over_limit:.3f} %" in page
+    # without the study the section says it was not run
+    plain = pypdf.PdfReader(io.BytesIO(build_pdf(evaluate(tubular_design))))
+    plain_text = " ".join(" ".join((p.extract_text() or "").split()) for p in plain.pages)
+    assert "The tolerance study was not run for this result" in plain_text
