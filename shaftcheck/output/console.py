@@ -480,27 +480,7 @@ def share_pct(fraction: float) -> str:
     return f"{pct:.2f} %"
 
 
-def print_tolerance(res: dict) -> None:
-    """Spread of each output over the tolerance samples, with units and the limit on every row."""
-    print_text(console, f"Monte Carlo of tolerances, {res['samples']} samples (seed "
-               f"{res['seed']})", style="bold")
-    labels = {"stiffness_mismatch_pct": ("stiffness mismatch", "%"),
-              "inboard_angle_difference_deg": ("inboard angle difference", "deg"),
-              "outboard_angle_difference_deg": ("outboard angle difference", "deg")}
-    cols = [Col("quantity", key=True), Col("unit", gap=1), Col("nominal", "right"),
-            Col("mean", "right"), Col("p0.135", "right"), Col("p99.865", "right"),
-            Col("limit", "right"), Col("over", "right")]
-    rows = []
-    for q in res["quantities"]:
-        label, unit = labels.get(q["name"], (q["name"], ""))
-        rows.append([label, unit, *(fmt_number(q.get(k), unit) for k in
-                                    ("nominal", "mean", "p_low", "p_high", "limit")),
-                     share_pct(q["fraction_over_limit"])])
-    print_table(console, "", cols, rows)
-    print_text(console, "p0.135 / p99.865: the 0.135 and 99.865 percentiles of the samples (the "
-               "+-3 sigma points of a normal spread); over: share of the samples over the limit.",
-               hanging="  ", style="dim")
-    print_caution()
+# print_tolerance lives in shaftcheck.output.tolerance_table (the tolerance table and ranking)
 
 
 @contextmanager
