@@ -427,9 +427,9 @@ def tolerance(design: Path = DesignArg,
     """Monte Carlo of manufacturing tolerances: spread of stiffness mismatch and angle
     difference, share of sampled builds over each limit, and which tolerance drives each.
 
-    Exit 0 when every share over a limit is at most tolerance_out_of_limit_max_pct, 1 when
-    some share is above it, 2 bad input. A progress bar shows on stderr on a terminal from
-    500,000 samples (plain lines in a log from 2,000,000).
+    Exit 0: every share within tolerance_out_of_limit_max_pct; 1: one above it;
+    2: bad input. Progress on stderr: a bar on a terminal from 500,000 samples,
+    plain lines in a log from 2,000,000.
     Example: shaftcheck tolerance example_designs/wren_tubular.toml -n 200000
     """
     _within("-n", n)
