@@ -21,11 +21,10 @@ from shaftcheck.methods.strut_corner import (  # noqa: F401  (re-exported API)
     CornerPoses,
     StrutHardPoints,
     align,
-    rotate,
     solve_strut,
     solve_strut_pose_scalar,
-    unit,
 )
+from shaftcheck.methods.vectors import rotate, unit  # noqa: F401  (re-exported API)
 
 __all__ = [
     "CornerPoses", "StrutHardPoints", "JointGeometry", "solve_strut",

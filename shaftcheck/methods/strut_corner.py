@@ -21,7 +21,8 @@ Solution (vectorised over the grid, no per-pose Python loop):
    A cos psi + B sin psi = C: closed form, psi = atan2(B, A) +/- arccos(C / hypot(A, B)); the branch
    is the one of the design pose. |C| > hypot(A, B) means the tie rod cannot close.
 3. The wheel-centre height z_W(phi) = z_W0 + travel is solved for phi by a vectorised Newton
-   iteration (central-difference slope), one loop over iterations only.
+   iteration (forward-difference slope), one loop over iterations only; poses that have
+   converged leave the iteration.
 
 Poses the linkage cannot reach raise :class:`shaftcheck.errors.UnreachablePoseError` for the first
 bad pose (travel-major order), never a silent NaN.
@@ -34,14 +35,17 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 
 from shaftcheck.errors import UnreachablePoseError
-from shaftcheck.methods.vectors import rotate, unit  # noqa: F401  (re-exported: older imports)
+from shaftcheck.methods.vectors import cross, dot, rotate, unit
+
+# ``unit`` and ``rotate`` are still imported from here by a module that has not moved to
+# shaftcheck.methods.vectors yet; import them from there.
 
 #: Newton tolerance on the wheel-centre height [m].
 HEIGHT_TOLERANCE = 1e-12
 #: Largest arm swing accepted from design [rad]; beyond it the lower arm is "past its range".
 MAX_ARM_SWING = np.radians(75.0)
 _MAX_ITERATIONS = 40
-_SLOPE_STEP = 1e-6  # [rad] central-difference step of the height slope
+_SLOPE_STEP = 1e-6  # [rad] forward-difference step of the height slope
 
 
 def align(v: np.ndarray, k0: np.ndarray, k: np.ndarray) -> np.ndarray:
@@ -49,10 +53,21 @@ def align(v: np.ndarray, k0: np.ndarray, k: np.ndarray) -> np.ndarray:
 
     R = I + [w]x + [w]x^2 / (1 + c), w = k0 x k, c = k0 . k (valid for c > -1).
     """
-    w = np.cross(k0, k)
-    c = np.sum(k0 * k, axis=-1, keepdims=True)
-    wv = np.cross(w, v)
-    return v + wv + np.cross(w, wv) / (1.0 + c)
+    return _Alignment(k0, k).apply(v)
+
+
+class _Alignment:
+    """The rotation of :func:`align` for one k0 -> k, applied to several vectors."""
+
+    __slots__ = ("w", "c")
+
+    def __init__(self, k0, k):
+        self.w = cross(k0, k)
+        self.c = dot(k0, k)[..., None]
+
+    def apply(self, v):
+        wv = cross(self.w, v)
+        return v + wv + cross(self.w, wv) / (1.0 + self.c)
 
 
 @dataclass(frozen=True)
@@ -196,57 +211,81 @@ def _upright(hp, frame, phi):
     return lbj, k
 
 
-def _closure(hp, frame, phi, rack, branch):
+class _Upright:
+    """The upright at arm angles phi before its turn psi about the strut line: lower ball joint,
+    steering axis k and the alignment k0 -> k, computed once for every point carried."""
+
+    __slots__ = ("lbj", "k", "turn")
+
+    def __init__(self, hp, frame, phi):
+        self.lbj, self.k = _upright(hp, frame, phi)
+        self.turn = _Alignment(frame.k0, self.k)
+
+
+def _closure(hp, frame, phi, rack, branch, up=None):
     """Tie-rod closure on ``branch``: returns (psi [rad], margin); margin < 0: cannot close."""
-    lbj, k = _upright(hp, frame, phi)
-    p = align(hp.tie_rod_outer - hp.lower_ball_joint, frame.k0, k)
-    p_par = np.sum(p * k, axis=-1, keepdims=True) * k
+    up = up or _Upright(hp, frame, phi)
+    lbj, k = up.lbj, up.k
+    p = up.turn.apply(hp.tie_rod_outer - hp.lower_ball_joint)
+    p_par = dot(p, k)[..., None] * k
     p_perp = p - p_par
     inner = hp.tie_rod_inner + rack[..., None] * np.array([0.0, 1.0, 0.0])
     d = lbj - inner
-    a = np.sum(d * p_perp, axis=-1)
-    b = np.sum(d * np.cross(k, p_perp), axis=-1)
-    c = 0.5 * (frame.tie_rod_length**2 - np.sum(d * d, -1) - np.sum(p * p, -1)) - np.sum(
-        d * p_par, -1)
+    a = dot(d, p_perp)
+    b = dot(d, cross(k, p_perp))
+    c = 0.5 * (frame.tie_rod_length**2 - dot(d, d) - dot(p, p)) - dot(d, p_par)
     ratio = c / np.hypot(a, b)
     psi = np.arctan2(b, a) + branch * np.arccos(np.clip(ratio, -1.0, 1.0))
     return (psi + np.pi) % (2.0 * np.pi) - np.pi, 1.0 - np.abs(ratio)
 
 
-def _place(hp, frame, phi, psi, vector, point=True):
+def _place(hp, frame, phi, psi, vector, point=True, up=None):
     """Carry a knuckle-fixed design point (or direction) to the pose (phi, psi)."""
-    lbj, k = _upright(hp, frame, phi)
+    up = up or _Upright(hp, frame, phi)
     rel = vector - hp.lower_ball_joint if point else vector
-    moved = rotate(align(rel, frame.k0, k), k, psi)
-    return lbj + moved if point else moved
+    moved = rotate(up.turn.apply(rel), up.k, psi)
+    return up.lbj + moved if point else moved
 
 
 def _height(hp, frame, phi, rack):
-    psi, margin = _closure(hp, frame, phi, rack, frame.branch)
-    return _place(hp, frame, phi, psi, hp.wheel_centre)[..., 2], psi, margin
+    up = _Upright(hp, frame, phi)
+    psi, margin = _closure(hp, frame, phi, rack, frame.branch, up)
+    return _place(hp, frame, phi, psi, hp.wheel_centre, up=up)[..., 2], psi, margin
 
 
 def _newton(hp, frame, target, rack):
-    """Arm angles phi with z_W(phi) = target over the grid; returns phi, psi, margin, ok flags."""
+    """Arm angles phi with z_W(phi) = target over the grid; returns phi, psi, margin, ok flags.
+
+    Newton's method on each pose with a forward-difference slope (step _SLOPE_STEP); a pose
+    leaves the iteration once its height is within HEIGHT_TOLERANCE, so late iterations only
+    evaluate the few poses still moving.
+    """
     h = _SLOPE_STEP
     z0 = _height(hp, frame, np.zeros(1), np.zeros(1))[0]
     slope0 = (_height(hp, frame, np.full(1, h), np.zeros(1))[0] - z0) / h
     phi = (target - hp.wheel_centre[2]) / slope0[0]
-    phi = np.clip(phi, -0.9 * MAX_ARM_SWING, 0.9 * MAX_ARM_SWING)
-    rack3 = np.broadcast_to(rack, (3, *np.shape(rack)))
+    phi = np.clip(phi, -0.9 * MAX_ARM_SWING, 0.9 * MAX_ARM_SWING).ravel()
+    goal = np.asarray(target, dtype=float).ravel()
+    rack = np.broadcast_to(rack, np.shape(target)).ravel()
+    z, psi, margin = np.empty_like(phi), np.empty_like(phi), np.empty_like(phi)
+    todo = np.arange(phi.size)
     for _ in range(_MAX_ITERATIONS):
-        # the pose and both slope points in one vectorised evaluation (same arithmetic per pose)
-        z3 = _height(hp, frame, np.stack([phi, phi + h, phi - h]), rack3)[0]
-        res = z3[0] - target
-        if np.all(np.abs(res) < HEIGHT_TOLERANCE):
+        z[todo], psi[todo], margin[todo] = _height(hp, frame, phi[todo], rack[todo])
+        res = z[todo] - goal[todo]
+        moving = np.abs(res) >= HEIGHT_TOLERANCE
+        todo, res = todo[moving], res[moving]
+        if todo.size == 0:
             break
-        slope = (z3[1] - z3[2]) / (2 * h)
+        slope = (_height(hp, frame, phi[todo] + h, rack[todo])[0] - z[todo]) / h
         bad_slope = np.sign(slope) != np.sign(slope0[0])
         step = np.where(bad_slope, 0.0, -res / np.where(bad_slope, 1.0, slope))
-        phi = np.clip(phi + np.clip(step, -0.2, 0.2), -MAX_ARM_SWING, MAX_ARM_SWING)
-    z, psi, margin = _height(hp, frame, phi, rack)
-    converged = np.abs(z - target) < 1e-9
-    return phi, psi, margin, converged
+        phi[todo] = np.clip(phi[todo] + np.clip(step, -0.2, 0.2), -MAX_ARM_SWING, MAX_ARM_SWING)
+    else:  # out of iterations: the last step moved these poses; evaluate them where they are
+        z[todo], psi[todo], margin[todo] = _height(hp, frame, phi[todo], rack[todo])
+    shape = np.shape(target)
+    converged = np.abs(z - goal) < 1e-9
+    return (phi.reshape(shape), psi.reshape(shape), margin.reshape(shape),
+            converged.reshape(shape))
 
 
 def _first_bad(side, travel, rack, margin, converged, phi):
@@ -294,16 +333,16 @@ def solve_strut(hp: StrutHardPoints, travel, rack, side: str = "left") -> Corner
 
 
 def _poses(hp, frame, travel, rack, phi, psi) -> CornerPoses:
-    lbj, k = _upright(hp, frame, phi)
-    wheel = _place(hp, frame, phi, psi, hp.wheel_centre)
-    spindle = unit(_place(hp, frame, phi, psi, hp.spindle_axis, point=False))
+    up = _Upright(hp, frame, phi)
+    wheel = _place(hp, frame, phi, psi, hp.wheel_centre, up=up)
+    spindle = unit(_place(hp, frame, phi, psi, hp.spindle_axis, point=False, up=up))
     inner = hp.tie_rod_inner + rack[None, :, None] * np.array([0.0, 1.0, 0.0])
     inner = np.broadcast_to(inner, wheel.shape).copy()
     return CornerPoses(
         travel=travel, rack=rack, wheel_centre=wheel, spindle_axis=spindle,
         outboard_joint_centre=wheel - hp.outboard_joint_offset * spindle,
-        lower_ball_joint=lbj, steering_axis=k,
-        tie_rod_outer=_place(hp, frame, phi, psi, hp.tie_rod_outer),
+        lower_ball_joint=up.lbj, steering_axis=up.k,
+        tie_rod_outer=_place(hp, frame, phi, psi, hp.tie_rod_outer, up=up),
         tie_rod_inner=inner, arm_angle=phi)
 
 

@@ -11,7 +11,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from shaftcheck.errors import DesignError, UnreachablePoseError
-from shaftcheck.methods.strut_corner import CornerPoses, unit
+from shaftcheck.methods.strut_corner import CornerPoses
+from shaftcheck.methods.vectors import unit
 
 REQUIRED_COLUMNS = ("travel_mm", "rack_mm", "wheel_centre_x_mm", "wheel_centre_y_mm",
                     "wheel_centre_z_mm", "spindle_x", "spindle_y", "spindle_z")

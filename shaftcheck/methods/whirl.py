@@ -91,13 +91,14 @@ def _assemble(x: np.ndarray, ei: np.ndarray, ma: np.ndarray):
     n = 2 * len(x)
     K = np.zeros((n, n))
     M = np.zeros((n, n))
-    first = 2 * np.arange(len(h))  # first dof of each element
-    # one slice per element-matrix entry: no index repeats within a pass, and a global entry
-    # receives at most two terms (two elements), so the order of the passes does not matter
+    # entry (a, b) of element e sits at row 2e + a, column 2e + b: in the flat array every
+    # (2n + 2)-th place from a n + b. One strided slice per entry; a global entry receives at
+    # most two terms (two elements), so the order of the passes does not change a bit.
+    kf, mf, step = K.reshape(-1), M.reshape(-1), 2 * n + 2
     for a in range(4):
         for b in range(4):
-            K[first + a, first + b] += ke[:, a, b]
-            M[first + a, first + b] += me[:, a, b]
+            kf[a * n + b::step][: len(h)] += ke[:, a, b]
+            mf[a * n + b::step][: len(h)] += me[:, a, b]
     return K, M
 
 
@@ -110,7 +111,8 @@ def _model(spans, point_masses, supports, per_span):
         raise ValueError("point masses must be >= 0")
     x, ei, ma = _mesh(spans, [p for p, _ in masses] + list(supports), per_span)
     K, M = _assemble(x, ei, ma)
-    node = {round(p, 12): i for i, p in enumerate(np.round(x, 12))}
+    # keys as round(numpy float, 12) gave them (numpy's rounding), as plain floats
+    node = {p: i for i, p in enumerate(np.round(np.round(x, 12), 12).tolist())}
     mass_dofs = [2 * node[round(p, 12)] for p, _ in masses]
     for dof, (_, m) in zip(mass_dofs, masses, strict=True):
         M[dof, dof] += m
