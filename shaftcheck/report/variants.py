@@ -87,8 +87,9 @@ def variants(result) -> list:
         f"The base design and {len(v.cases) - 1} variant(s) were checked on one geometry "
         "(corner, shafts, joints and intermediate shaft are the same for all; a variant changes "
         "only vehicle, powertrain and duty-cycle keys). Each row of the table above is the "
-        "worst of them, its variant named under the location. Sections 2 to 6 show the "
-        f"governing variant, {v.governing}, which holds the smallest margin of all. "
+        "worst of them, its variant named under the location. The detail sections that "
+        f"follow (stiffness to inputs) show the governing variant, {v.governing}, which holds "
+        "the smallest margin of all. "
         + (f"Not releasable as designed for: {', '.join(failed)}." if failed else
            "Every variant meets every check."), st.SMALL)]
     out += cases_table(v) + [gap(2)]
