@@ -319,3 +319,27 @@ def test_report_section_shows_percentiles_limits_shares_and_ranking(tubular_desi
     plain = pypdf.PdfReader(io.BytesIO(build_pdf(evaluate(tubular_design))))
     plain_text = " ".join(" ".join((p.extract_text() or "").split()) for p in plain.pages)
     assert "The tolerance study was not run for this result" in plain_text
+
+
+@pytest.mark.parametrize("k, n", [(0, 300), (2, 300), (146, 20000), (20000, 20000), (7, 11)])
+def test_share_interval_is_scipy_s_wilson_interval(k, n):
+    """Oracle: scipy.stats.binomtest(k, n).proportion_ci(method="wilson") (scipy reference
+    documentation), to rounding."""
+    from scipy.stats import binomtest
+
+    from shaftcheck.methods.tolerance_sampling import wilson_interval
+
+    ci = binomtest(k, n).proportion_ci(confidence_level=0.95, method="wilson")
+    lo, hi = wilson_interval(k, n)
+    assert lo == pytest.approx(ci.low, abs=1e-12) and hi == pytest.approx(ci.high, abs=1e-12)
+
+
+def test_an_uncertain_verdict_is_flagged(tubular_design):
+    res, _ = run(tubular_design, n=300, seed=1)
+    q = res.quantities[1]  # no sample over the limit, but 300 samples cannot show 0.135 %
+    assert q.fraction_over_limit == 0.0
+    assert q.verdict_is_uncertain(res.out_of_limit_max_pct, res.samples)
+    d = res.to_dict()["quantities"][1]
+    assert d["verdict_uncertain"] is True and d["share_over_limit_ci95_pct"][0] == 0.0
+    big, _ = run(tubular_design, n=20000, seed=1)
+    assert not big.quantities[1].verdict_is_uncertain(big.out_of_limit_max_pct, big.samples)

@@ -299,6 +299,23 @@ def sample(design, geometry: dict, n: int, rng: np.random.Generator) -> Toleranc
     return evaluate(plan, draw(plan, rng, n))
 
 
+def wilson_interval(k: int, n: int, z: float = 1.959963984540054) -> tuple[float, float]:
+    """Score interval of a share k/n of samples (0 ... 1), 95 % by default:
+    (p + z^2/2n -/+ z sqrt(p (1-p)/n + z^2/4n^2)) / (1 + z^2/n), p = k/n (E. B. Wilson,
+    "Probable inference, the law of succession, and statistical inference", Journal of the
+    American Statistical Association 22(158), 1927, pp. 209-212; from memory). Unlike
+    p -/+ z sqrt(p (1-p)/n) it stays inside 0 ... 1 and is not empty when k = 0."""
+    if n <= 0:
+        return (0.0, 1.0)
+    p = k / n
+    z2 = z * z
+    centre = (p + z2 / (2 * n)) / (1 + z2 / n)
+    half = z * math.sqrt(p * (1 - p) / n + z2 / (4 * n * n)) / (1 + z2 / n)
+    lo = 0.0 if k <= 0 else max(0.0, centre - half)
+    hi = 1.0 if k >= n else min(1.0, centre + half)
+    return (lo, hi)
+
+
 class FirstOrderShares:
     """First-order variance shares of ``n_outputs`` outputs to ``n_inputs`` standard-normal
     inputs, from a stream of chunks in fixed memory (see the module docstring).

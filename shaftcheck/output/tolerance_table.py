@@ -70,6 +70,12 @@ def print_tolerance(res) -> None:
                "builds. over: share of the sampled builds above the limit; met when it is at "
                f"most tolerance_out_of_limit_max_pct = {crit:g} %. Each tolerance is taken as "
                "3 standard deviations of a normal distribution.", hanging="  ", style="dim")
+    for q in res.quantities:
+        if q.verdict_is_uncertain(crit, res.samples):
+            lo, hi = q.share_interval_pct(res.samples)
+            print_text(console, f"{q.label}: the 95 % interval of its share over the limit, "
+                       f"{lo:.3g} ... {hi:.3g} %, holds the criterion: use more samples (-n) "
+                       "before relying on this verdict.", hanging="  ")
     print_ranking(res)
     print_caution()
 

@@ -98,6 +98,12 @@ def tolerance(result) -> list:
         f"tolerance taken as 3 standard deviations of a normal distribution (common practice, "
         f"no source); {tol.inputs} sampled dimensions. Tolerances: {given or 'none given'}."))
     out += _spread(tol)
+    for q in tol.quantities:
+        if q.verdict_is_uncertain(tol.out_of_limit_max_pct, tol.samples):
+            lo, hi = q.share_interval_pct(tol.samples)
+            out.append(text(f"{q.label}: the 95 % interval of the share over the limit, "
+                            f"{lo:.3g} ... {hi:.3g} %, holds the criterion: this verdict needs "
+                            "more samples (shaftcheck tolerance -n)."))
     out.append(gap(1.5))
     verdict = st.met(tol.passed)
     out.append(para(f"Share of sampled builds over a limit against the criterion: {verdict}. "

@@ -119,14 +119,29 @@ class QuantitySpread:
     def passed(self, out_of_limit_max_pct: float) -> bool:
         return 100.0 * self.fraction_over_limit <= out_of_limit_max_pct
 
-    def to_dict(self, out_of_limit_max_pct: float) -> dict:
+    def share_interval_pct(self, samples: int) -> tuple[float, float]:
+        """95 % score interval of the share over the limit [%] (Wilson) for ``samples``."""
+        from shaftcheck.methods.tolerance_sampling import wilson_interval
+
+        lo, hi = wilson_interval(round(self.fraction_over_limit * samples), samples)
+        return 100.0 * lo, 100.0 * hi
+
+    def verdict_is_uncertain(self, out_of_limit_max_pct: float, samples: int) -> bool:
+        """True when the criterion lies inside the share's 95 % interval: another seed or
+        more samples may give the other verdict."""
+        lo, hi = self.share_interval_pct(samples)
+        return lo <= out_of_limit_max_pct <= hi
+
+    def to_dict(self, out_of_limit_max_pct: float, samples: int) -> dict:
         return {"name": self.name, "label": self.label, "unit": self.unit,
                 "nominal": self.nominal, "mean": self.mean, "std": self.std,
                 "p_low": self.p_low, "p_high": self.p_high, "p_resolution": self.p_resolution,
                 "minimum": self.minimum, "maximum": self.maximum, "limit": self.limit,
                 "fraction_over_limit": self.fraction_over_limit,
                 "share_over_limit_pct": 100.0 * self.fraction_over_limit,
+                "share_over_limit_ci95_pct": list(self.share_interval_pct(samples)),
                 "passed": self.passed(out_of_limit_max_pct),
+                "verdict_uncertain": self.verdict_is_uncertain(out_of_limit_max_pct, samples),
                 "sensitivity": [{"input": s.input, "tolerance": s.tolerance, "share": s.share}
                                 for s in self.shares],
                 "sensitivity_by_tolerance": dict(self.by_tolerance),
@@ -182,7 +197,10 @@ class ToleranceResult:
             "sampled_inputs": self.inputs,
             "sensitivity_method": SENSITIVITY_METHOD,
             "max_samples": MAX_SAMPLES,
-            "quantities": [q.to_dict(crit) for q in self.quantities]})
+            "share_interval": "share_over_limit_ci95_pct: 95 % score interval of the share "
+                              "(Wilson 1927); verdict_uncertain: the criterion lies inside it, "
+                              "so more samples or another seed may give the other verdict",
+            "quantities": [q.to_dict(crit, self.samples) for q in self.quantities]})
 
 
 def _g(x: float) -> str:
