@@ -123,12 +123,16 @@ def evaluate_variants(design, *, travel_points: int = GEOMETRY_TRAVEL_POINTS,
     rows = governing_rows(pairs)
     cases = tuple(CaseResult(name, changes, res.checks, dict(res.load_cases))
                   for name, res, _, _, changes in runs)
-    gov = min(range(len(cases)), key=lambda i: _margin(cases[i].worst) if cases[i].worst is not None
-              else math.inf)
+    gov = min(range(len(cases)), key=lambda i: math.inf if cases[i].worst is None
+              else _margin(cases[i].worst))
     name, res, gdesign, gctx, _ = runs[gov]
-    if transient:
-        res = evaluate(gdesign, transient=True, ctx=gctx)
     notices = list(base.notices)
+    if transient:
+        from shaftcheck.studies import transient as transient_study
+
+        found, _ = transient_study.run(gdesign, gctx)
+        res = dataclasses.replace(res, transient=found)
+        notices += [x for x in getattr(found, "notices", ()) or () if x not in notices]
     for n, r, *_ in runs[1:]:
         notices += [f"variant {n}: {x}" for x in r.notices
                     if x not in base.notices and f"variant {n}: {x}" not in notices]
