@@ -167,7 +167,8 @@ def print_check(result) -> None:
         print_text(console, f"VERDICT: all {len(result.checks)} checks met", style="bold green")
     else:
         print_text(console, f"VERDICT: {len(failed)} of {len(result.checks)} checks NOT met: "
-                   + ", ".join(c.id for c in failed), style="bold red")
+                   + ", ".join(c.id + (f" (variant {c.variant})" if getattr(c, "variant", "")
+                                         else "") for c in failed), style="bold red")
     print_caution()
 
 

@@ -38,8 +38,9 @@ def verdict_box(result) -> list:
         return [boxed(body, st.PASS_BG, st.PASS)]
     head = f"VERDICT: {len(failed)} of {len(checks)} checks NOT met - not releasable as designed"
     body = [Paragraph(st.coloured(st.esc(head), st.FAIL_HEX), st.VERDICT), gap(1)]
-    body += bullets([f"{st.esc(c.title)} ({st.esc(c.side)}): {_value(c)}, limit "
-                     f"{_limit(c)}" for c in failed], markup=True)
+    body += bullets([f"{st.esc(c.title)} ({st.esc(c.side)}"
+                     f"{', variant ' + st.esc(c.variant) if c.variant else ''}): {_value(c)}, "
+                     f"limit {_limit(c)}" for c in failed], markup=True)
     return [boxed(body, st.FAIL_BG, st.FAIL)]
 
 
