@@ -26,7 +26,7 @@ from hypothesis import strategies as st
 from shaftcheck.io.design_file import design_from_dict
 from shaftcheck.methods.sections import Segment, polar_moment, segment_stiffness, shaft_stiffness
 from shaftcheck.methods.side_stiffness import mismatch_pct, side_stiffness
-from shaftcheck.studies.evaluate import design_geometry
+from shaftcheck.studies.context import Context
 
 G = 79.3e9  # [Pa]
 diam = st.floats(5e-3, 80e-3)
@@ -136,11 +136,13 @@ def test_mirrored_sides_balance_exactly(dx, y, dz, yaw, pitch, segs):
     kl, kr = side_stiffness(design.left).whole, side_stiffness(design.right).whole
     assert kl == kr
     assert mismatch_pct(kl, kr) == 0.0
-    geo = design_geometry(design)
+    geo = Context(design).design_geometry
     for key in ("inboard_angle", "outboard_angle", "length"):
-        assert geo["left"][key] == pytest.approx(geo["right"][key], rel=1e-12, abs=1e-15)
+        assert getattr(geo["left"], key) == pytest.approx(getattr(geo["right"], key), rel=1e-12,
+                                                          abs=1e-15)
     # the joint centres themselves are mirror images
-    assert list(geo["right"]["O"]) == pytest.approx(_mirror(list(geo["left"]["O"])), abs=1e-15)
+    assert list(geo["right"].outboard_centre) == pytest.approx(
+        _mirror(list(geo["left"].outboard_centre)), abs=1e-15)
 
 
 def test_mirrored_example_evaluates_to_zero_differences():

@@ -167,19 +167,10 @@ def story(result, changes=None) -> list:
         from shaftcheck.report.changes import changes_section
 
         out += changes_section(changes)
-    for part in (stiffness, geometry, strength, duty_cycle, torque_steer, tolerance, inputs,
-                 methods, cautions):
-        out += _page(part, result)
-    return out
-
-
-def _page(part, result) -> list:
-    # transitional: pages not yet moved to the typed result still take its JSON form too
-    import inspect
-
-    if len(inspect.signature(part).parameters) == 1:
-        return part(result)
-    return part(result, result.to_dict())
+    for part in (stiffness, geometry, strength, duty_cycle, torque_steer, tolerance, inputs):
+        out += part(result)
+    rd = result.to_dict()  # the methods and cautions pages also read the JSON form
+    return out + methods(result, rd) + cautions(result, rd)
 
 
 def build_pdf(result, changes=None) -> bytes:

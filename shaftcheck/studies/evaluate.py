@@ -27,20 +27,19 @@ def evaluate(design, *, travel_points: int = GEOMETRY_TRAVEL_POINTS,
     ctx = ctx or Context(design, travel_points=travel_points, rack_points=rack_points)
     checks: list = []
 
-    def take(study, legacy=None):
-        run = getattr(study, "run", None) or legacy
-        res, found = run(design, ctx)
+    def take(study):
+        res, found = study.run(design, ctx)
         checks.extend(found)
         return res
 
     sides_res = take(sides)
     geometry_res = take(geometry)
     bearings_res = take(bearing)
-    strength_res = take(strength, _strength_legacy)
-    torque_res = take(torque_steer, _torque_steer_legacy)
+    strength_res = take(strength)
+    torque_res = take(torque_steer)
     duty_res = take(duty_cycle)
     transient_res = None
-    if transient and _has_transient_study():
+    if transient:
         from shaftcheck.studies import transient as transient_study
 
         transient_res = take(transient_study)
@@ -56,45 +55,3 @@ def evaluate(design, *, travel_points: int = GEOMETRY_TRAVEL_POINTS,
     return Result(design, tuple(checks), tuple(notices), dict(ctx.cases), sides_res,
                   geometry_res, bearings_res, strength_res, torque_res, transient_res,
                   duty_cycle=duty_res)
-
-
-# --- transitional adapters for studies not yet on the contract (removed when they move) ------
-class _Section:
-    """A study's JSON section standing in for its typed result."""
-
-    def __init__(self, data: dict, notices=()):
-        self.data, self.notices = data, tuple(notices)
-
-    def to_dict(self) -> dict:
-        return dict(self.data)
-
-
-def _strength_legacy(design, ctx):
-    from shaftcheck.studies import strength
-
-    data, checks = strength.strength_study(design)
-    return _Section(data), checks
-
-
-def _torque_steer_legacy(design, ctx):
-    from shaftcheck.studies import torque_steer
-
-    data = torque_steer.pull_study(design, intermediate_lengths=ctx.intermediate_lengths)
-    return _Section(data), torque_steer.pull_checks(design, data)
-
-
-def design_geometry(design, intermediate_lengths: dict | None = None) -> dict:
-    """Joint geometry of both sides at design as the older plain dict (SI)."""
-    ctx = Context(design)
-    if intermediate_lengths is not None:
-        ctx.__dict__["intermediate_lengths"] = dict(intermediate_lengths)
-    return {n: {"I": g.inboard_centre, "d": g.output_axis, "O": g.outboard_centre,
-                "W": g.wheel_centre, "b": g.spindle_axis, "inboard_angle": g.inboard_angle,
-                "outboard_angle": g.outboard_angle, "length": g.length,
-                "shaft_axis": g.shaft_axis} for n, g in ctx.design_geometry.items()}
-
-
-def _has_transient_study() -> bool:
-    import importlib.util
-
-    return importlib.util.find_spec("shaftcheck.studies.transient") is not None

@@ -13,7 +13,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from shaftcheck.studies.context import SIDES, grid  # noqa: F401  (grid: transitional re-export)
+from shaftcheck.studies.context import SIDES
 from shaftcheck.studies.result import Check
 from shaftcheck.units import RAD2DEG
 
@@ -209,18 +209,3 @@ def run(design, ctx) -> tuple[GeometryResult, list[Check]]:
     cardans, cardan_checks = _cardans(ctx, sides)
     res = GeometryResult(ctx.travel, ctx.rack, sides, diff, cardans)
     return res, _limit_checks(design, res) + balance_checks + cardan_checks
-
-
-# --- transitional helpers for studies not yet on the context (removed when they move) ----------
-def corner_poses(design, side: str, travel, rack):
-    """CornerPoses of one side over travel x rack [m] (a one-off context)."""
-    from shaftcheck.studies.context import Context
-
-    return Context(design).poses(side, travel, rack)
-
-
-def bearing_lengths(design, travel_points: int = 35) -> dict:
-    """Intermediate-shaft length per side [m]: given, or placed by the bearing study."""
-    from shaftcheck.studies.context import Context
-
-    return Context(design, travel_points=travel_points).intermediate_lengths
