@@ -137,10 +137,14 @@ def make_history(minutes: float = 10.0, rate: float = 100.0, seed: int = SEED) -
 
 
 def to_csv(data: dict) -> str:
-    """CSV text: the header row with units, time to 0.01 s, the rest to 0.1 of their unit."""
+    """CSV text: the header row with units, time to 0.01 s (0.001 s above 100 Hz), the rest to
+    0.1 of their unit."""
     names = list(data)
-    cols = [np.char.mod("%.2f" if name == "time_s" else "%.1f",
-                        np.round(data[name], 2 if name == "time_s" else 1) + 0.0)
+    t = data["time_s"]
+    dt = float(t[1] - t[0]) if t.size > 1 else 1.0
+    td = 2 if dt >= 0.01 - 1e-12 else 3
+    cols = [np.char.mod(f"%.{td}f" if name == "time_s" else "%.1f",
+                        np.round(data[name], td if name == "time_s" else 1) + 0.0)
             for name in names]
     rows = [",".join(r) for r in zip(*cols, strict=True)]
     return ",".join(names) + "\n" + "\n".join(rows) + "\n"

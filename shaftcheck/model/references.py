@@ -142,6 +142,13 @@ REFERENCES: dict[str, Reference] = {
     "shigley9_miner": Reference(
         f"{_SHIGLEY9}, cumulative fatigue damage: Palmgren-Miner rule D = sum n_i/N_i", "S/M",
         "§7.4", "section and equation number not re-read in the 9th ed."),
+    "astm_e1049_rainflow": Reference(
+        "ASTM E1049-85 (reapproved 2011), Standard Practices for Cycle Counting in Fatigue "
+        "Analysis, §5.4.4 rainflow counting, as implemented by the rainflow package "
+        "(rainflow.extract_cycles); the example history -2, 1, -3, 5, -1, 3, -4, 4, -2 and its "
+        "counts seen through a quotation (the package's test suite)", "S/M", "§2.4",
+        "the standard's page was not read: the example's figure and table numbers are from "
+        "memory; the counts agree with the quotation"),
     "shigley9_static_kt": Reference(
         f"{_SHIGLEY9}, §3-13, p. 111 and §5-2, p. 217: under static load a ductile material "
         "(true strain at fracture >= 0.05) is designed without the stress-concentration factor "
