@@ -309,7 +309,10 @@ def bearing(design: Path = DesignArg, json_: bool = JsonOpt,
     d = _load(design)
     if all(d.side(s).intermediate is None for s in ("left", "right")):
         _fail(f"{design}: no side has an [<side>.intermediate] table; nothing to place")
-    found, _ = bearing_study.run(d, Context(d, travel_points=travel_points))
+    from shaftcheck.studies.duty_cycle import bearing_pose_duty
+
+    found, _ = bearing_study.run(d, Context(d, travel_points=travel_points,
+                                            bearing_pose_duty=bearing_pose_duty(d)))
     from shaftcheck.studies.result import jsonable
 
     res = jsonable(next(iter(found.values())).to_dict())

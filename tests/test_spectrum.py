@@ -385,3 +385,21 @@ def test_counting_is_cached_on_the_history():
     assert h.cycles is h.cycles
     assert isinstance(h.cycles["left"], CountedCycles)
     assert dataclasses.replace(h, distance=1e3, life=2e3).repeats == 2.0
+
+
+def test_bearing_life_takes_the_history_time_at_each_pose():
+    # the intermediate-shaft bearing study's input hook (Context.bearing_pose_duty) receives the
+    # history's pose-time table of the side with the intermediate shaft
+    from shaftcheck.studies.duty_cycle import bearing_pose_duty, pose_time_tables
+    from shaftcheck.studies.evaluate import evaluate
+
+    d = load_design(ROOT / "example_designs" / "wren_line.toml")
+    duty = bearing_pose_duty(d)
+    table = pose_time_tables(d, d.torque_history)["right"]
+    assert d.right.intermediate is not None
+    assert duty.share.sum() == pytest.approx(1.0)
+    assert duty.share.size == np.count_nonzero(table.shares)
+    assert "measured history" in duty.basis
+    data = evaluate(d).to_dict()
+    assert data["bearing"]["duty"]["poses"]["basis"] == duty.basis
+    assert bearing_pose_duty(load_design(TUBULAR)) is None  # no history: the study's default

@@ -212,6 +212,25 @@ def pose_time_tables(design, history) -> dict:
     return out
 
 
+def bearing_pose_duty(design):
+    """The history's time at each pose, as the pose duty of the intermediate-shaft bearing
+    study (its input hook :func:`shaftcheck.studies.bearing.pose_duty`): the occupied cells of
+    the pose-time table of the side with the intermediate shaft. None without a history with
+    travel columns or without an intermediate shaft (the bearing study then uses its default).
+    """
+    history = getattr(design, "torque_history", None)
+    side = next((s for s in SIDES if design.side(s).intermediate is not None), None)
+    if history is None or history.travel is None or side is None:
+        return None
+    from shaftcheck.studies.bearing import pose_duty
+
+    p = pose_time_tables(design, history)[side]
+    ti, rj = np.nonzero(p.shares)
+    return pose_duty(p.travel[ti] * 1e3, p.rack[rj] * 1e3, p.shares[ti, rj],
+                     basis=f"measured history '{history.source}': time at each {side} wheel "
+                     "travel x rack cell")
+
+
 def joint_exposure(design, ctx, pose_time: dict) -> tuple:
     """JointExposure of both joints of both sides from the pose-time tables."""
     from shaftcheck.studies.geometry import sweep_side

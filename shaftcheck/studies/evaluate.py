@@ -25,6 +25,8 @@ def evaluate(design, *, travel_points: int = GEOMETRY_TRAVEL_POINTS,
     from shaftcheck.studies import bearing, duty_cycle, geometry, sides, strength, torque_steer
 
     ctx = ctx or Context(design, travel_points=travel_points, rack_points=rack_points)
+    if getattr(ctx, "bearing_pose_duty", "") is None:  # a measured history's time at each pose
+        ctx.bearing_pose_duty = duty_cycle.bearing_pose_duty(design)
     checks: list = []
 
     def take(study):
