@@ -105,7 +105,8 @@ def test_sweep_grid_is_bounded_before_allocation():
 # --- values inside the ranges still work ---------------------------------------------------------
 def test_sample_count_in_e_notation_is_accepted():
     proc = run_cli("tolerance", TUBULAR, "-n", "2e2", "--seed", "0", "--json")
-    assert proc.returncode == 0, proc.stderr
+    # 1 is a verdict (a share over a limit above tolerance_out_of_limit_max_pct), not an error
+    assert proc.returncode in (0, 1), proc.stderr
     data = json.loads(proc.stdout)
     assert data["samples"] == 200 and data["seed"] == 0
 
