@@ -53,7 +53,7 @@ def cases_table(v) -> list:
 def matrix(result) -> list:
     """Check x variant tables (PER_TABLE variants each): value and verdict of every check."""
     v = result.variants
-    by_case = {case.name: {c.id: c for c in case.checks} for case in v.cases}
+    by_case = {case.name: {(c.id, c.side): c for c in case.checks} for case in v.cases}
     names = list(v.names)
     out = []
     width = st.FRAME_WIDTH / mm - CHECK_COLUMN_MM
@@ -63,11 +63,11 @@ def matrix(result) -> list:
         for i, row in enumerate(result.checks):
             cells = [_check_label(row)]
             for name in block:
-                c = by_case[name].get(row.id)
+                c = by_case[name].get((row.id, row.side))
                 cells.append("-" if c is None else _cell(c, name == row.variant))
             rows.append(cells)
-            if any(by_case[n].get(row.id) is not None and not by_case[n][row.id].passed
-                   for n in block):
+            if any(not by_case[n][(row.id, row.side)].passed for n in block
+                   if (row.id, row.side) in by_case[n]):
                 bad.append(i)
         col = width / PER_TABLE
         out += [data_table(["Check"] + [st.esc(n) for n in block], rows,

@@ -80,19 +80,20 @@ def variant_design(design, variant):
 
 
 def governing_rows(cases: list[tuple[str, Result]]) -> list[Check]:
-    """The worst row of each check id over ``cases`` ((name, Result) pairs), each marked with
-    its variant. Order: the first case's checks, then ids only later cases have (e.g. the
-    split-friction check of a limited-slip variant), in their order."""
-    order: list[str] = []
-    worst: dict[str, Check] = {}
+    """The worst row of each check (id and side) over ``cases`` ((name, Result) pairs), each
+    marked with its variant. Order: the first case's checks, then checks only later cases have
+    (e.g. the split-friction check of a limited-slip variant), in their order."""
+    order: list[tuple[str, str]] = []
+    worst: dict[tuple[str, str], Check] = {}
     for name, res in cases:
         for c in res.checks:
-            if c.id not in worst:
-                order.append(c.id)
-                worst[c.id] = dataclasses.replace(c, variant=name)
-            elif _margin(c) < _margin(worst[c.id]):
-                worst[c.id] = dataclasses.replace(c, variant=name)
-    return [worst[i] for i in order]
+            key = (c.id, c.side)
+            if key not in worst:
+                order.append(key)
+                worst[key] = dataclasses.replace(c, variant=name)
+            elif _margin(c) < _margin(worst[key]):
+                worst[key] = dataclasses.replace(c, variant=name)
+    return [worst[k] for k in order]
 
 
 def _margin(c: Check) -> float:
