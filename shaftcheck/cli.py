@@ -549,6 +549,8 @@ def spectrum(history: Path = typer.Argument(..., show_default=False, help="Time 
         _within(option, value)
     if (distance_km is None) != (life_km is None):
         _fail("--distance-km and --life-km go together (the scale-up is life / distance)")
+    if life_km is not None and life_km < distance_km:
+        _fail(f"--life-km = {life_km:g} km: must not be below --distance-km = {distance_km:g} km")
     from shaftcheck.output.files import check_target, shown, write_bytes_atomic, write_text_atomic
 
     fmt = None if chart is None else Path(chart).suffix.lower().lstrip(".")

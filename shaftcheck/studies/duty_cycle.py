@@ -190,7 +190,7 @@ def read_spectrum(path, distance_km: float | None = None, life_km: float | None 
     history = read_history(Path(path), str(path))
     if distance_km is not None and life_km is not None:
         if life_km < distance_km:
-            raise DesignError("--life-km", f"= {life_km:g} km: must not be below --distance-km "
+            raise DesignError("life_km", f"= {life_km:g} km: must not be below distance_km "
                               f"= {distance_km:g} km")
         history = dataclasses.replace(history, distance=distance_km * 1e3, life=life_km * 1e3)
     return spectrum_of(history, range_bins)
