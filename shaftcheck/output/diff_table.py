@@ -87,6 +87,9 @@ def check_detail(change) -> str:
             parts.append(f"governing: {n.location} (was {o.location})")
         elif n.location:
             parts.append(n.location)
+        old_v, new_v = getattr(o, "variant", ""), getattr(n, "variant", "")
+        if old_v != new_v:
+            parts.append(f"variant {new_v or 'base'} (was {old_v or 'base'})")
     else:
         parts.append(change.check.location)
     return "; ".join(p for p in parts if p)
