@@ -431,7 +431,8 @@ def print_torque_steer(ts, transient=None, checks=()) -> None:
 
     sm = ts.split_mu
     if sm is not None:
-        tbr = "locked" if math.isinf(sm.torque_bias_ratio) else f"TBR {sm.torque_bias_ratio:g}"
+        tbr = "locked" if math.isinf(sm.torque_bias_ratio) else (
+            f"torque bias ratio {sm.torque_bias_ratio:g}")
         print_lines(console, [""])
         rows = [[c.low_side, f"{c.torque_left:.0f}", f"{c.torque_right:.0f}",
                  _signed(c.steering_wheel_torque, wd)] for c in sm.cases]
