@@ -407,18 +407,19 @@ def test_lock_check_has_its_own_criterion(tubular_study, tmp_path):
     _, _, res, checks = tubular_study
     lock = checks["steering_wheel_torque_lock"]
     assert lock.value == pytest.approx(np.max(np.abs(res.steer.steering_wheel_torque)))
-    assert lock.limit == c.steering_wheel_torque_lock_max_nm
+    # the tubular example states its own program target at full lock (7 N*m)
+    assert lock.limit == 7.0 != c.steering_wheel_torque_lock_max_nm
     # regression value of this project's model: 6.098 N*m at full rack travel (tubular example)
     assert lock.value == pytest.approx(6.098, abs=5e-4)
-    assert not lock.passed
+    assert lock.passed
     assert "steering_wheel_torque_split_mu" not in checks  # open differential
 
-    def looser_lock(d):
-        d.setdefault("criteria", {})["steering_wheel_torque_lock_max_nm"] = 7.0
-    design = load_design(write_modified(tmp_path, TUBULAR, looser_lock))
+    def default_lock(d):  # without the example's target the default limit applies and fails
+        d["criteria"].pop("steering_wheel_torque_lock_max_nm")
+    design = load_design(write_modified(tmp_path, TUBULAR, default_lock))
     found = {c.id: c for c in torque_steer.run(design, Context(design))[1]}
-    assert found["steering_wheel_torque_lock"].passed
-    assert found["steering_wheel_torque_lock"].limit == 7.0
+    assert found["steering_wheel_torque_lock"].limit == c.steering_wheel_torque_lock_max_nm
+    assert not found["steering_wheel_torque_lock"].passed
     assert found["steering_wheel_torque"].limit == c.steering_wheel_torque_max_nm
 
 
