@@ -16,6 +16,7 @@ import math
 import pytest
 from conftest import INTERMEDIATE
 from reportlab.graphics.shapes import Group, Line, PolyLine, Rect, String
+from reportlab.lib.pagesizes import A4
 from reportlab.pdfbase.pdfmetrics import getFont, stringWidth
 
 from shaftcheck.report import styles as st
@@ -361,7 +362,7 @@ def test_the_longest_design_file_footer_wraps_without_a_cut(words, monkeypatch):
     lines, bottom = document.footer_layout(text, "0123456789ab")
     assert 3 <= len(lines) <= document.FOOT_MAX_LINES
     assert not any(line.endswith("...") for line in lines)
-    full = 595.2756 - 2 * st.MARGIN
+    full = A4[0] - 2 * st.MARGIN
     assert all(_foot_width(line) <= full + 1e-6 for line in lines)
     assert _foot_width(lines[0]) < full - _foot_width("SHA-256 0123456789ab   page 1 of 1")
     assert "".join(lines).replace(" ", "") == text.replace(" ", "")  # nothing lost
