@@ -36,14 +36,15 @@ def histogram_drawing(spectrum, width_mm: float = 170.0, height_mm: float = 72.0
     counts = [c for s in sides for c in spectrum.histogram[s] if c > 0]
     top = max(counts, default=1.0)
     e_hi = max(1, math.ceil(math.log10(top) + 1e-9))
-    lo_log = math.log10(0.5)  # a half cycle is the smallest count
+    lo_log = math.log10(0.3)  # below a half cycle, the smallest count (its bar stays visible)
 
     def ypos(c: float) -> float:
         return y0 + (y1 - y0) * (math.log10(c) - lo_log) / (e_hi - lo_log)
 
-    d.add(String(x0, h - 5 * mm, f"Rainflow cycles counted in {st.clean(spectrum.source)} "
-                 "(as measured), by torque range", fontName="Helvetica-Bold", fontSize=8.5,
-                 fillColor=st.INK))
+    name = st.clean(spectrum.source.replace("\\", "/").rsplit("/", 1)[-1])
+    name = name if len(name) <= 48 else name[:45] + "..."
+    d.add(String(x0, h - 5 * mm, f"Rainflow cycles counted in {name} (as measured), by torque "
+                 "range", fontName="Helvetica-Bold", fontSize=8.5, fillColor=st.INK))
     d.add(Rect(x0, y0, x1 - x0, y1 - y0, fillColor=None, strokeColor=st.RULE, strokeWidth=0.6))
     for e in range(0, e_hi + 1):
         y = ypos(10.0**e)
