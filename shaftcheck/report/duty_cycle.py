@@ -185,6 +185,10 @@ def duty_cycle(result) -> list:
         "outwards to 0.1 N*m, cycles the larger side's count times the repeats, rounded up."
         + (f" {more} further bins are in the JSON output." if more > 0 else "")))
     out += _exposure(dc)
+    if dc.pose_time is not None and getattr(result, "bearings", None):
+        out.append(para("The intermediate-shaft bearing life (its own section) takes the "
+                        "pose-time table of the side with the intermediate shaft as its pose "
+                        "duty, instead of the default poses."))
     if dc.notices:
         out.append(para("<b>Notices.</b> " + " ".join(
             f"({i + 1}) {st.esc(n)}." for i, n in enumerate(dc.notices))))
