@@ -229,8 +229,8 @@ def _closure(hp, frame, phi, rack, branch, up=None):
     p = up.turn.apply(hp.tie_rod_outer - hp.lower_ball_joint)
     p_par = dot(p, k)[..., None] * k
     p_perp = p - p_par
-    inner = hp.tie_rod_inner + rack[..., None] * np.array([0.0, 1.0, 0.0])
-    d = lbj - inner
+    d = lbj - hp.tie_rod_inner  # minus the rack's shift of the inner point along +y:
+    d[..., 1] = lbj[..., 1] - (hp.tie_rod_inner[1] + rack)
     a = dot(d, p_perp)
     b = dot(d, cross(k, p_perp))
     c = 0.5 * (frame.tie_rod_length**2 - dot(d, d) - dot(p, p)) - dot(d, p_par)
@@ -248,9 +248,20 @@ def _place(hp, frame, phi, psi, vector, point=True, up=None):
 
 
 def _height(hp, frame, phi, rack):
+    """Wheel-centre height z_W [m], psi [rad] and closure margin at arm angles phi.
+
+    Only the z component of the placed wheel centre is formed (the same arithmetic as the z
+    component of :func:`_place`).
+    """
     up = _Upright(hp, frame, phi)
     psi, margin = _closure(hp, frame, phi, rack, frame.branch, up)
-    return _place(hp, frame, phi, psi, hp.wheel_centre, up=up)[..., 2], psi, margin
+    v = up.turn.apply(hp.wheel_centre - hp.lower_ball_joint)
+    k = up.k
+    a = np.asarray(psi, dtype=float)
+    cos = np.cos(a)
+    k_cross_v_z = k[..., 0] * v[..., 1] - k[..., 1] * v[..., 0]
+    moved_z = v[..., 2] * cos + k_cross_v_z * np.sin(a) + k[..., 2] * dot(k, v) * (1.0 - cos)
+    return up.lbj[..., 2] + moved_z, psi, margin
 
 
 def _newton(hp, frame, target, rack):
