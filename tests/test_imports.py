@@ -111,8 +111,18 @@ def _loaded_after(statement: str, watch: tuple[str, ...]) -> list[str]:
 
 
 def test_cli_import_is_light():
-    heavy = ("numpy", "scipy", "sympy", "reportlab")
+    heavy = ("numpy", "scipy", "sympy", "reportlab", "pydantic")
     assert _loaded_after("import shaftcheck.cli", heavy) == []
+
+
+def test_check_runs_without_scipy_reportlab_or_sympy():
+    # the whole `check` path of the tubular example: the whirl eigen-solve is numpy's, the
+    # corner solve and the strength study need no scipy. (typer 0.16 and later import pydantic
+    # while they parse the options of a command, so pydantic is not watched here.)
+    design = str(ROOT / "example_designs" / "wren_tubular.toml")
+    code = ("from shaftcheck.cli import app\n"
+            f"try:\n    app(['check', {design!r}])\nexcept SystemExit:\n    pass")
+    assert _loaded_after(code, ("scipy", "reportlab", "sympy")) == []
 
 
 def test_package_import_is_light():
