@@ -7,15 +7,21 @@ the differential; the geometry is the example's, so it is solved once for all el
 and ten variants). Two measures:
 
 * in-process: ``evaluate`` of the example against ``evaluate_variants`` of the line, each after
-  a warm-up, best of several runs (the machine is shared: the best run is the least disturbed);
+  a warm-up, best of several runs;
 * end to end: ``shaftcheck check`` of each file (interpreter start and imports included), median;
 * in-process again with the whirl FE memoized by its inputs inside this script only (a proposal,
   not the product: the first critical speed depends on the geometry alone, yet the strength
   study computes it for every variant, and it is most of a variant's time).
+
+Each is given as CPU time (this process, or the child processes) beside the wall time: on a
+shared machine the wall time mostly measures the other jobs. numpy's BLAS runs on one thread here
+(set before numpy is imported) so that idle BLAS threads spinning do not count as work.
 """
 
 from __future__ import annotations
 
+import os
+import resource
 import statistics
 import subprocess
 import sys
@@ -24,6 +30,8 @@ import time
 import tomllib
 from pathlib import Path
 
+for _name in ("OMP_NUM_THREADS", "OPENBLAS_NUM_THREADS", "MKL_NUM_THREADS"):
+    os.environ.setdefault(_name, "1")
 ROOT = Path(__file__).resolve().parents[2]
 sys.path.insert(0, str(ROOT))
 sys.path.insert(0, str(ROOT / "tests"))
@@ -53,14 +61,16 @@ def ten_variants() -> list[dict]:
     return out
 
 
-def best(fn) -> float:
+def best(fn) -> tuple[float, float]:
+    """(CPU, wall) [s] of ``fn()``, each the best of RUNS after a warm-up."""
     fn()
-    times = []
+    cpu, wall = [], []
     for _ in range(RUNS):
-        t0 = time.perf_counter()
+        c0, w0 = time.process_time(), time.perf_counter()
         fn()
-        times.append(time.perf_counter() - t0)
-    return min(times)
+        cpu.append(time.process_time() - c0)
+        wall.append(time.perf_counter() - w0)
+    return min(cpu), min(wall)
 
 
 def whirl_memo():
@@ -83,14 +93,25 @@ def whirl_memo():
     return cached.cache_clear
 
 
-def median_cli(path: Path) -> float:
-    times = []
+def median_cli(path: Path) -> tuple[float, float]:
+    """(CPU of the child, wall) [s] of ``shaftcheck check path``, medians of RUNS."""
+    cpu, wall = [], []
     for _ in range(RUNS):
-        t0 = time.perf_counter()
+        r0 = resource.getrusage(resource.RUSAGE_CHILDREN)
+        w0 = time.perf_counter()
         subprocess.run([sys.executable, "-m", "shaftcheck", "check", str(path)], cwd=ROOT,
                        stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
-        times.append(time.perf_counter() - t0)
-    return statistics.median(times)
+        wall.append(time.perf_counter() - w0)
+        r1 = resource.getrusage(resource.RUSAGE_CHILDREN)
+        cpu.append(r1.ru_utime - r0.ru_utime + r1.ru_stime - r0.ru_stime)
+    return statistics.median(cpu), statistics.median(wall)
+
+
+def show(label: str, one: tuple, many: tuple, how: str) -> None:
+    print(f"{label:44s} one {one[0] * 1e3:7.1f} ms CPU ({one[1] * 1e3:7.1f} wall), base + 10 "
+          f"variants {many[0] * 1e3:7.1f} ms CPU ({many[1] * 1e3:7.1f} wall): ratio "
+          f"{many[0] / one[0]:4.2f} CPU, {many[1] / one[1]:4.2f} wall (target <= {TARGET:g}); "
+          f"{how}")
 
 
 def main() -> None:
@@ -108,18 +129,14 @@ def main() -> None:
             t10 = best(lambda d=many: evaluate_variants(d))
             c1, c10 = median_cli(src), median_cli(line)
             figures[example] = (one, many)
-        print(f"{example}: in-process  one {t1 * 1e3:7.1f} ms, base + 10 variants "
-              f"{t10 * 1e3:7.1f} ms, ratio {t10 / t1:4.2f} (target <= {TARGET:g}), best of {RUNS}")
-        print(f"{example}: check (CLI) one {c1 * 1e3:7.1f} ms, base + 10 variants "
-              f"{c10 * 1e3:7.1f} ms, ratio {c10 / c1:4.2f} (target <= {TARGET:g}), median of "
-              f"{RUNS}")
+        show(f"{example}, in-process evaluation:", t1, t10, f"best of {RUNS}")
+        show(f"{example}, shaftcheck check (end to end):", c1, c10, f"median of {RUNS}")
 
     clear = whirl_memo()
     for example, (one, many) in figures.items():
         m1 = best(lambda d=one: (clear(), evaluate(d)))
         m10 = best(lambda d=many: (clear(), evaluate_variants(d)))
-        print(f"{example}: whirl memoized (proposal) one {m1 * 1e3:7.1f} ms, base + 10 variants "
-              f"{m10 * 1e3:7.1f} ms, ratio {m10 / m1:4.2f}")
+        show(f"{example}, whirl memoized (proposal):", m1, m10, f"best of {RUNS}")
 
 
 if __name__ == "__main__":
