@@ -74,8 +74,13 @@ def test_low_cycle_bins_are_refused_not_extrapolated():
     above = line.strength_1e3 * 1.01
     res = fg.miner_damage([above, 300e6], [10, 1e4], line)
     assert res.refused == (True, False)
-    assert math.isnan(res.total) and math.isnan(res.life[0])
+    assert math.isnan(res.life[0])
     assert res.damage[1] == pytest.approx(1e4 / float(line.life(300e6)))
+    # the refused bin's 10 cycles each count as the whole life (N = 1): finite, above 1
+    assert res.damage[0] == 10.0
+    assert res.total == pytest.approx(10.0 + res.damage[1])
+    total, refused = fg.miner_sum([above, 300e6], [10, 1e4], line)
+    assert (total, refused) == (pytest.approx(res.total), 10.0)
 
 
 def test_refused_bin_fails_the_miner_check_with_a_message():
@@ -85,8 +90,9 @@ def test_refused_bin_fails_the_miner_check_with_a_message():
                        [(-700.0, 700.0, 50.0)], 100.0)
     assert res.damage.any_refused
     assert any("refused" in n for n in res.notices)
+    assert math.isfinite(res.damage.total)  # no null in the JSON
     check = Check("d", "Miner", "left", res.damage.total, 1.0, "-", "max")
-    assert not check.passed  # NaN never passes
+    assert not check.passed
 
 
 # --- convention 1: fillet radius at the step ---------------------------------------------------

@@ -22,7 +22,9 @@ Norton, *Machine Design*, S_m = 0.9 S_us: both from memory), joined by a straigh
 log-log axes, S_f = a N^b with a = (0.9 S_su)^2 / S_se, b = -(1/3) log10(0.9 S_su / S_se) (the
 form of Shigley 9th ed. eqs. 6-14, 6-15). S_su is Shigley's 0.67 S_ut (more conservative than
 Juvinall's 0.8 S_u). Below 10^3 cycles the stress-life method is not used: a bin whose
-equivalent amplitude exceeds 0.9 S_su is **refused** (life NaN, Miner total NaN) with a message.
+equivalent amplitude exceeds 0.9 S_su is **refused** (life NaN) with a message, and the Miner sum
+counts each of its cycles as using up the whole life (N = 1, damage n): a finite, conservative
+upper bound, so that the damage check fails with the refusal as its message.
 """
 
 from __future__ import annotations
@@ -386,14 +388,15 @@ def basquin_torsion(ultimate_strength: float, shear_endurance: float) -> Basquin
 class MinerResult:
     """Miner damage of a duty cycle: per bin and total; life in repeats of the whole spectrum.
 
-    A refused bin (equivalent amplitude above the 10^3-cycle strength) has life and damage NaN,
-    and makes the total NaN: the check then fails with the refusal as its message.
+    A refused bin (equivalent amplitude above the 10^3-cycle strength) has life NaN and damage
+    n (each of its cycles counted as using up the whole life, N = 1: a conservative upper bound
+    outside the stress-life method); the check then fails with the refusal as its message.
     """
 
     amplitude: tuple[float, ...]  # equivalent fully reversed amplitude per bin [Pa]
     life: tuple[float, ...]  # cycles to failure per bin [-] (inf below S_se, NaN refused)
-    damage: tuple[float, ...]  # n_i / N_i per bin [-]
-    total: float  # D [-]
+    damage: tuple[float, ...]  # n_i / N_i per bin [-] (n_i for a refused bin, N = 1)
+    total: float  # D [-], always finite
     repeats: float  # 1 / D, spectrum repeats to D = 1 (inf when D = 0)
     refused: tuple[bool, ...] = ()
 
@@ -417,9 +420,9 @@ def miner_damage(tau_ar: Sequence[float], cycles: Sequence[float],
     life = line.life(t)
     refused = np.isnan(life) & (n > 0)
     dmg = np.where(np.isinf(life), 0.0, n / np.where(np.isnan(life), 1.0, life))
-    dmg = np.where(refused, np.nan, np.where(n == 0, 0.0, dmg))
-    total = float(np.nan if refused.any() else dmg.sum())
-    repeats = math.nan if math.isnan(total) else (math.inf if total == 0 else 1.0 / total)
+    dmg = np.where(refused, n, np.where(n == 0, 0.0, dmg))  # refused: N = 1 (whole life)
+    total = float(dmg.sum())
+    repeats = math.inf if total == 0 else 1.0 / total
     return MinerResult(tuple(map(float, t)), tuple(map(float, life)), tuple(map(float, dmg)),
                        total, repeats, tuple(bool(x) for x in refused))
 
@@ -430,8 +433,8 @@ def miner_sum(tau_ar, counts, line: BasquinLine) -> tuple[float, float]:
 
     Parameters: tau_ar fully reversed amplitude of each cycle [Pa]; counts n_i (1 for a cycle,
     0.5 for a half cycle) [-]; the S-N line. Same rule as :func:`miner_damage` (no damage at or
-    below S_se, a cycle above the 10^3-cycle strength is refused): returns (D, refused cycles,
-    the sum of their counts); D is NaN when any cycle with a count is refused.
+    below S_se, a cycle above the 10^3-cycle strength is refused and counted with N = 1, the
+    whole life): returns (D, the sum of the refused cycles' counts); D is always finite.
     Source: Miner's rule as in Shigley 9th ed. §6-16 (from memory of the section number); key
     ``shigley9_miner``.
     """
@@ -444,6 +447,6 @@ def miner_sum(tau_ar, counts, line: BasquinLine) -> tuple[float, float]:
         return 0.0, 0.0
     life = line.life(t[live])
     bad = np.isnan(life)
-    if bad.any():
-        return math.nan, float(n[live][bad].sum())
-    return float(np.sum(n[live] / life)), 0.0
+    counts = n[live]
+    refused = float(counts[bad].sum())
+    return float(np.sum(counts[~bad] / life[~bad]) + refused), refused

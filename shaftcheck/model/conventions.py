@@ -109,8 +109,9 @@ CONVENTIONS: dict[str, Convention] = {
         "§7.3",
         "The torsional S-N line runs from 0.9 S_su at 10^3 cycles to S_se at 10^6 cycles, "
         "straight on log-log axes, with S_su = 0.67 S_ut; a bin whose equivalent amplitude "
-        "exceeds 0.9 S_su (a life below 10^3 cycles) is refused, not extrapolated, and the damage "
-        "check then fails with that message."),
+        "exceeds 0.9 S_su (a life below 10^3 cycles) is refused, not extrapolated: the Miner sum "
+        "counts each of its cycles as the whole life (N = 1, a conservative upper bound) and the "
+        "damage check names the refusal."),
     "torsion_mean_sign": Convention(
         "§7.2",
         "In torsion the sign of a mean shear stress only names the torque's direction, so "

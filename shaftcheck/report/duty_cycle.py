@@ -168,8 +168,8 @@ def duty_cycle(result) -> list:
                            "Cycles x repeats", "Refused"], rows, [30, 20, 13, 17, 42, 34, 14],
                           right=(1, 2, 5, 6), highlight_rows=tuple(bad)))
     out.append(caption("Refused: counted cycles whose equivalent amplitude is above 0.9 S_su "
-                       "(life below 10^3 cycles, outside the stress-life method); any refused "
-                       "cycle fails the check."))
+                       "(life below 10^3 cycles, outside the stress-life method); each counts "
+                       "as the whole life (N = 1) in D."))
     out += sub("Bins for a design file")
     b = sp.binned
     rows = [[f"{x.torque_min:.1f}", f"{x.torque_max:.1f}",

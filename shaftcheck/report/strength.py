@@ -155,7 +155,8 @@ def _sn_chart(members: list) -> list:
         f"{e.material_id}: S_se = {endurance:.1f} MPa and 0.9 S_su = "
         f"{sn.strength_1e3 * MPA:.0f} MPa at the governing damage location "
         f"({_where(e.strength.damage.location)}). The line is not extended below 10^3 cycles: "
-        + (f"bins {refused} are refused (life below 10^3 cycles). " if refused else
+        + (f"bins {refused} are refused (life below 10^3 cycles); each of their cycles counts "
+           "as the whole life (N = 1) in the damage sum. " if refused else
            "no bin reaches it. ")
         + "Bins below S_se do no damage (elementary Miner rule).")]
 
@@ -165,7 +166,7 @@ def _miner_table(members: list) -> list:
     dmg = e.strength.damage
     rows = []
     for r in e.miner:
-        life = ("refused (below 10^3)" if r.status == "refused"
+        life = ("refused: N = 1" if r.status == "refused"
                 else "infinite (below S_se)" if math.isinf(r.life) else st.num(r.life, 3))
         rows.append([str(r.bin), f"{r.torque_min:.0f} ... {r.torque_max:.0f}",
                      st.num(r.cycles, 3), st.fixed(r.amplitude * MPA, 1), life,

@@ -32,21 +32,27 @@ class Check:
     note: str = ""
     #: the variant this row is the worst of (a design with [[variants]]); "" otherwise
     variant: str = ""
+    #: part of the value lies outside the method's range (e.g. fatigue cycles below 10^3 cycles
+    #: of life, counted conservatively): the check is not met whatever the value; the note says why
+    outside_method: bool = False
 
     @property
     def passed(self) -> bool:
-        if math.isnan(self.value):
+        if math.isnan(self.value) or self.outside_method:
             return False
         return self.value <= self.limit if self.sense == "max" else self.value >= self.limit
 
     @property
     def margin(self) -> float:
-        """Margin as a fraction of the limit: positive = met with room, negative = failed."""
+        """Margin as a fraction of the limit: positive = met with room, negative = failed
+        (at most 0 for a check outside its method)."""
         if self.limit == 0 or math.isnan(self.value) or math.isinf(self.value):
             return math.inf if self.passed else -math.inf
         if self.sense == "max":
-            return (self.limit - self.value) / abs(self.limit)
-        return (self.value - self.limit) / abs(self.limit)
+            m = (self.limit - self.value) / abs(self.limit)
+        else:
+            m = (self.value - self.limit) / abs(self.limit)
+        return min(m, 0.0) if self.outside_method else m
 
     def to_dict(self) -> dict:
         return {
@@ -63,6 +69,7 @@ class Check:
             "location": self.location,
             "reference": self.reference,
             "note": self.note,
+            **({"outside_method": True} if self.outside_method else {}),
         }
 
 

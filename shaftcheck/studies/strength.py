@@ -276,7 +276,7 @@ def history_damage(sections, cycles, repeats: float, material, criterion: str,
         total, refused = fg.miner_sum(tar, cycles.count, line)
         total *= repeats
         top = float(tar.max()) if tar.size else 0.0
-        key = (refused > 0, total if math.isfinite(total) else math.inf)
+        key = (refused > 0, total)
         if worst is None or key > worst[0]:
             worst = (key, HistoryDamage(s.location, total, cycles.total, repeats, refused, top,
                                         s.marin.shear_endurance, source))
@@ -348,8 +348,9 @@ def _checks(design, e: ShaftEntry, high_is_subset: bool) -> list[Check]:
             note_for(hc.location)))
         dmg = res.damage
         refused = [i for i, r in enumerate(dmg.refused) if r]
-        extra = (f"bins {refused} refused: life below 10^3 cycles, outside the stress-life "
-                 "method" if refused else "")
+        extra = (f"loads.spectrum bins {refused} refused: life below 10^3 cycles, outside "
+                 "the stress-life method, each cycle counted as the whole life (N = 1)"
+                 if refused else "")
         hd = e.history_damage
         if hd is None or design.spectrum:
             # the design's own bins (with a history as well: a second check, so that bins a
@@ -359,18 +360,18 @@ def _checks(design, e: ShaftEntry, high_is_subset: bool) -> list[Check]:
                 f"Duty-cycle damage (Miner){title}" if hd is None else
                 f"Duty-cycle damage (Miner, [[loads.spectrum]] bins){title}", name, dmg.total,
                 crit.miner_damage_max, "-", "max", _where(shaft, dmg.location),
-                "shigley9_miner", note_for(dmg.location, extra)))
+                "shigley9_miner", note_for(dmg.location, extra), outside_method=bool(refused)))
         if hd is not None:
             extra = (f"every rainflow cycle of the measured history '{hd.source}' "
                      f"({hd.cycles:,.1f} cycles x {hd.repeats:,.6g} repeats)")
             if hd.refused:
                 extra += (f"; {hd.refused:g} counted cycles refused: life below 10^3 cycles, "
-                          "outside the stress-life method")
+                          "outside the stress-life method, each counted as the whole life (N = 1)")
             out.append(Check(
                 f"fatigue_damage_{tag}", f"Duty-cycle damage (Miner, measured history){title}",
                 name, hd.total, crit.miner_damage_max, "-", "max",
                 _where(shaft, hd.location) + ", measured history", "shigley9_miner",
-                note_for(hd.location, extra)))
+                note_for(hd.location, extra), outside_method=hd.refused > 0))
     bk = res.buckling_governing
     if bk is not None:
         r = bk.resistance
