@@ -95,11 +95,11 @@ def check_legend() -> list[str]:
 
 def _detail(c) -> str | None:
     """The indented line under a check: its governing location, and, when the check has no
-    value (a refused computation), the reason from its note; first its governing variant
-    when the design has [[variants]]."""
+    value or lies outside its method (a refused computation), the reason from its note; first
+    its governing variant when the design has [[variants]]."""
     parts = [f"variant {c.variant}"] if getattr(c, "variant", "") else []
     parts += [c.location] if c.location else []
-    if c.value != c.value and c.note:  # NaN: the note says why there is no value
+    if (c.value != c.value or getattr(c, "outside_method", False)) and c.note:
         parts.append(c.note)
     return "; ".join(parts) or None
 
