@@ -96,3 +96,33 @@ def test_corner_solve_matches_the_plain_newton_loop(path):
         for name in ("spindle_axis", "steering_axis"):
             assert np.max(np.abs(getattr(got, name) - getattr(ref, name))) < 2e-12, name
         assert np.max(np.abs(got.arm_angle - ref.arm_angle)) < 1e-11
+
+
+def test_sorted_unique_is_numpys_unique():
+    from shaftcheck.methods.arrays import sorted_unique
+
+    rng = np.random.default_rng(11)
+    cases = [np.array([]), np.array([0.0]), np.array([0.0, -0.0, 0.0]),
+             np.round(rng.normal(size=500), 2), np.linspace(-0.1, 0.1, 35),
+             np.concatenate([np.linspace(-0.08, 0.09, 41), [0.0, 0.0, 1e-3, -1e-3]]),
+             rng.integers(0, 5, size=(4, 6)).astype(float)]
+    for a in cases:
+        got, ref = sorted_unique(a), np.unique(a)
+        assert got.shape == ref.shape and np.array_equal(got, ref)
+        assert np.array_equal(np.signbit(got), np.signbit(ref))  # the same zero is kept
+
+
+def test_evaluate_does_not_import_numpy_ma():
+    # numpy.unique imports numpy.ma (about 25 ms); the evaluation's grids use sorted_unique
+    import subprocess
+    import sys
+
+    from conftest import ROOT, TUBULAR
+
+    code = ("import sys\nfrom shaftcheck.io.design_file import load_design\n"
+            "from shaftcheck.studies.evaluate import evaluate\n"
+            f"evaluate(load_design({str(TUBULAR)!r}))\nprint('numpy.ma' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=ROOT,
+                         timeout=120)
+    assert out.returncode == 0, out.stderr
+    assert out.stdout.strip().splitlines()[-1] == "False"

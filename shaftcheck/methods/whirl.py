@@ -28,6 +28,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from shaftcheck.methods.arrays import sorted_unique
+
 #: beta_1 L of the first bending mode of a uniform Euler-Bernoulli beam (Blevins Table 8-1).
 BETA1_L = {
     "pinned-pinned": math.pi,
@@ -68,7 +70,7 @@ def _mesh(spans: Sequence[BeamSpan], stations: Sequence[float], per_span: int):
     """Node positions and per-element EI, rho A; nodes at span ends, stations, subdivisions."""
     ends = np.concatenate([[0.0], np.cumsum([s.length for s in spans])])
     pts = [np.linspace(ends[i], ends[i + 1], per_span + 1) for i in range(len(spans))]
-    x = np.unique(np.round(np.concatenate(pts + [np.asarray(stations, float)]), 12))
+    x = sorted_unique(np.round(np.concatenate(pts + [np.asarray(stations, float)]), 12))
     if x[0] < -1e-12 or x[-1] > ends[-1] + 1e-9:
         raise ValueError("a mass or support lies outside the shaft")
     mid = 0.5 * (x[:-1] + x[1:])

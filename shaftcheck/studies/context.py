@@ -21,6 +21,7 @@ from functools import cached_property
 
 import numpy as np
 
+from shaftcheck.methods.arrays import sorted_unique
 from shaftcheck.model.defaults import MODEL_DEFAULTS
 
 SIDES = ("left", "right")
@@ -40,7 +41,7 @@ def grid(lo: float, hi: float, n: int) -> np.ndarray:
     g = np.linspace(lo, hi, max(int(n), 2))
     if lo <= 0.0 <= hi:
         g = np.append(g[np.abs(g) > 1e-9 * max(hi - lo, 1e-12)], 0.0)
-    return np.unique(g)
+    return sorted_unique(g)
 
 
 def strut_hard_points(design, side: str):
@@ -137,7 +138,7 @@ class Context:
     def torque_steer_travel(self) -> np.ndarray:
         """Travel grid of the torque-steer study [m]: its own grid plus both roll offsets."""
         g = grid(*self.design.suspension.travel, TORQUE_STEER_TRAVEL_POINTS)
-        return np.unique(np.concatenate([g, self.roll, -self.roll]))
+        return sorted_unique(np.concatenate([g, self.roll, -self.roll]))
 
     @cached_property
     def torque_steer_rack(self) -> np.ndarray:
@@ -146,14 +147,14 @@ class Context:
 
     @cached_property
     def _union(self) -> tuple[np.ndarray, np.ndarray]:
-        travel = np.unique(np.concatenate([self.travel, self.torque_steer_travel]))
-        rack = np.unique(np.concatenate([self.rack, self.torque_steer_rack]))
+        travel = sorted_unique(np.concatenate([self.travel, self.torque_steer_travel]))
+        rack = sorted_unique(np.concatenate([self.rack, self.torque_steer_rack]))
         if any(self.design.side(s).intermediate is not None for s in SIDES):
             from shaftcheck.studies.bearing import duty_poses  # bearing-life poses
 
             duty = duty_poses(self)
-            travel = np.unique(np.concatenate([travel, duty.travel]))
-            rack = np.unique(np.concatenate([rack, duty.rack]))
+            travel = sorted_unique(np.concatenate([travel, duty.travel]))
+            rack = sorted_unique(np.concatenate([rack, duty.rack]))
         return travel, rack
 
     # --- corner poses ---------------------------------------------------------------------------

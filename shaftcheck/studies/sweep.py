@@ -10,6 +10,7 @@ import io
 
 import numpy as np
 
+from shaftcheck.methods.arrays import sorted_unique
 from shaftcheck.units import RAD2DEG
 
 
@@ -18,7 +19,7 @@ def stepped(lo: float, hi: float, step: float) -> np.ndarray:
     neg = -np.arange(0.0, -lo + 1e-12, step)[1:][::-1] if lo < 0 else np.array([])
     pos = np.arange(0.0, hi + 1e-12, step)
     g = np.concatenate([[lo] if lo < 0 else [], neg, pos, [hi]])
-    return np.unique(np.round(g, 12))
+    return sorted_unique(np.round(g, 12))
 
 
 def sweep_data(design, travel_step: float, rack_step: float) -> dict:
