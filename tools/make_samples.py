@@ -21,6 +21,7 @@ sys.path.insert(0, str(ROOT))
 import shaftcheck  # noqa: E402
 from shaftcheck.io.design_file import load_design  # noqa: E402
 from shaftcheck.report.document import build_pdf  # noqa: E402
+from shaftcheck.studies.tolerance import with_tolerance  # noqa: E402
 from shaftcheck.studies.variants import evaluate_variants as evaluate  # noqa: E402
 
 EXAMPLES = Path("example_designs")
@@ -40,7 +41,9 @@ def _show(path: Path) -> str:
 
 
 def _result(design_file: Path):
-    return evaluate(load_design(EXAMPLES / design_file.name), transient=True)
+    """The result the report command builds: every variant, the transient, the tolerance
+    section with the report's fixed seed and sample count."""
+    return with_tolerance(evaluate(load_design(EXAMPLES / design_file.name), transient=True))
 
 
 def write_all() -> int:
