@@ -13,9 +13,15 @@ import os
 import sys
 from pathlib import Path
 
-import typer
+# One BLAS thread: the tool's matrices are small (a few hundred rows), and on a busy machine
+# OpenBLAS's thread pool cost more than the solves themselves (tests/benchmarks/bench_cli.py).
+# Set before numpy is first imported; a value the user set wins.
+for _var in ("OPENBLAS_NUM_THREADS", "OMP_NUM_THREADS", "MKL_NUM_THREADS"):
+    os.environ.setdefault(_var, "1")
 
-from shaftcheck.errors import ShaftcheckError
+import typer  # noqa: E402
+
+from shaftcheck.errors import ShaftcheckError  # noqa: E402
 
 app = typer.Typer(
     help="Release checks for the front halfshafts of transverse-engine cars: stiffness balance, "
@@ -25,6 +31,7 @@ app = typer.Typer(
     no_args_is_help=True,
     add_completion=False,
     pretty_exceptions_enable=False,
+    rich_markup_mode=None,  # plain help: typer's rich help imports a markdown parser (~100 ms)
 )
 
 DesignArg = typer.Argument(..., help="Design file (TOML, format 1).", show_default=False)
