@@ -6,8 +6,11 @@ revolutions, seconds or metres (the caller converts to hours and km).
 * Placement (docs/methods.md §5.1, key ``intermediate_shaft_placement``): the right
   halfshaft's inboard joint sits at output_point + length * output_axis; choose length inside
   the allowed range to minimise max over travel of max(|b_in,L - b_in,R|, |b_out,L - b_out,R|)
-  at zero rack, with scipy.optimize.minimize_scalar(method="bounded") on the best interval of a
-  coarse scan (the objective is a maximum of absolute values: kinked and possibly multimodal).
+  at zero rack, with a golden-section search (:func:`golden_section_minimum`, Kiefer 1953;
+  Press et al., Numerical Recipes, 3rd ed., §10.2) on the best interval of a coarse scan (the
+  objective is a maximum of absolute values: kinked and possibly multimodal, so the search works
+  on the scan's best interval only). Plain Python, no scipy import on the ``check`` path; a test
+  compares it with scipy.optimize.minimize_scalar(method="bounded").
 * Bearing loads (docs/methods.md §5.2; shaft free body §4.4, ``cv_joint_bisector_moment``): at the
   intermediate shaft's outer end the inboard joint puts the secondary couple -M_I (transverse
   part) and the halfshaft's transverse force F_O on the intermediate shaft. The shaft is a beam on
@@ -38,6 +41,45 @@ BALL_LIFE_EXPONENT = 3.0
 #: Life exponent p of ISO 281 for roller bearings [-] ([M], from memory).
 ROLLER_LIFE_EXPONENT = 10.0 / 3.0
 _SCAN_POINTS = 81
+#: absolute length tolerance of the placement search [m]
+PLACEMENT_XATOL = 1e-10
+_INV_PHI = (5.0 ** 0.5 - 1.0) / 2.0  # 1/phi = 0.618... (golden ratio phi)
+
+
+def golden_section_minimum(f, lo: float, hi: float, xatol: float = PLACEMENT_XATOL,
+                           maxiter: int = 500) -> tuple[float, float]:
+    """Minimum of a scalar function on [lo, hi] by golden-section search -> (x, f(x)).
+
+    Each step keeps the sub-interval that holds the smaller of two interior values placed at
+    the golden ratio, so the interval shrinks by 1/phi = 0.618 per evaluation (J. Kiefer,
+    Proc. AMS 4, 1953; W. H. Press et al., Numerical Recipes, 3rd ed., 2007, §10.2). Needs no
+    derivative and no smoothness, so it suits kinked objectives such as a max of absolute
+    values; for a unimodal f on [lo, hi] it converges to the minimiser. Stops when the interval
+    is narrower than ``xatol`` (same unit as x) or after ``maxiter`` steps; returns the best
+    point evaluated.
+    """
+    a, b = float(lo), float(hi)
+    if not b >= a:
+        raise ValueError("golden_section_minimum needs lo <= hi")
+    c, d = b - _INV_PHI * (b - a), a + _INV_PHI * (b - a)
+    fc, fd = f(c), f(d)
+    best = (c, fc) if fc <= fd else (d, fd)
+    for _ in range(int(maxiter)):
+        if b - a <= xatol:
+            break
+        if fc <= fd:  # minimum in [a, d]: d -> b, c -> d
+            b, d, fd = d, c, fc
+            c = b - _INV_PHI * (b - a)
+            fc = f(c)
+            if fc < best[1]:
+                best = (c, fc)
+        else:  # minimum in [c, b]: c -> a, d -> c
+            a, c, fc = c, d, fd
+            d = a + _INV_PHI * (b - a)
+            fd = f(d)
+            if fd < best[1]:
+                best = (d, fd)
+    return float(best[0]), float(best[1])
 
 
 @dataclass(frozen=True)
@@ -105,8 +147,6 @@ def place_bearing(left: CornerPoses, right: CornerPoses, left_inboard_centre, le
     the right inboard joint centre. limit [rad]: allowed angle difference (criterion), optional.
     Method: module docstring.
     """
-    from scipy.optimize import minimize_scalar
-
     if not np.allclose(left.travel, right.travel):
         raise ValueError("left and right poses must share the travel vector")
     lo, hi = (float(x) for x in length_range)
@@ -126,9 +166,8 @@ def place_bearing(left: CornerPoses, right: CornerPoses, left_inboard_centre, le
     values = angle_difference(scan, left_angles, r_out, r_spin, point, axis)
     k = int(np.argmin(values))
     bracket = (scan[max(k - 1, 0)], scan[min(k + 1, scan.size - 1)])
-    opt = minimize_scalar(objective, bounds=bracket, method="bounded",
-                          options={"xatol": 1e-10, "maxiter": 500})
-    length, best = (float(opt.x), float(opt.fun)) if opt.fun <= values[k] else (scan[k], values[k])
+    x, fx = golden_section_minimum(objective, *bracket, xatol=PLACEMENT_XATOL)
+    length, best = (x, fx) if fx <= values[k] else (float(scan[k]), float(values[k]))
     b_in, b_out = _right_angles(np.array([length]), r_out, r_spin, point, axis)
     angles = {"inboard_left": left_angles[0], "inboard_right": b_in[0],
               "outboard_left": left_angles[1], "outboard_right": b_out[0]}

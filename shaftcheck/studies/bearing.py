@@ -14,6 +14,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from shaftcheck.methods.arrays import sorted_unique
 from shaftcheck.studies.result import Check
 from shaftcheck.units import RAD2DEG
 
@@ -392,7 +393,7 @@ def life(ctx, placement: BearingResult) -> BearingLife:
     pd = duty_poses(ctx)
     given = getattr(ctx, "bearing_drive_duty", None)
     dd = given if given is not None else default_drive_duty(design, torque)
-    ut, ur = np.unique(pd.travel), np.unique(pd.rack)
+    ut, ur = sorted_unique(pd.travel), sorted_unique(pd.rack)
     grid = ctx.poses(name, ut, ur)
     ti, rj = np.searchsorted(ut, pd.travel), np.searchsorted(ur, pd.rack)
     O = grid.outboard_joint_centre[ti, rj]  # (nj, 3)
