@@ -134,6 +134,24 @@ def num(x, digits: int = 3) -> str:
     return sig(x, digits)
 
 
+def check_pair(value, limit, unit: str | None, digits: int = 3) -> tuple[str, str]:
+    """(value, limit) of a check as the report prints them: numerical noise below the
+    resolution of the unit is 0 (the terminal's rule, :mod:`shaftcheck.output.numbers`), and
+    when the two would print alike although they differ, the terminal's digits that tell them
+    apart are used."""
+    from shaftcheck.output.numbers import distinct_pair, is_noise
+
+    def one(x):
+        if x is not None and isinstance(x, float) and math.isfinite(x) and is_noise(x, unit):
+            return "0"
+        return num(x, digits)
+
+    v, lim = one(value), one(limit)
+    if v == lim and value != limit and value is not None and limit is not None:
+        v, lim = distinct_pair(value, limit, unit)
+    return v, lim
+
+
 def fixed(x, decimals: int = 1) -> str:
     """A value with fixed decimals ('-' for missing)."""
     if x is None or (isinstance(x, float) and not math.isfinite(x)):

@@ -64,12 +64,12 @@ def _unit(c) -> str:
 
 
 def _value(c) -> str:
-    return st.num(c.value, 3) + _unit(c)
+    return st.check_pair(c.value, c.limit, c.unit)[0] + _unit(c)
 
 
 def _limit(c) -> str:
     sense = "&lt;= " if c.sense == "max" else "&gt;= "
-    return sense + st.num(c.limit, 3) + _unit(c)
+    return sense + st.check_pair(c.value, c.limit, c.unit)[1] + _unit(c)
 
 
 def _margin(c) -> str:

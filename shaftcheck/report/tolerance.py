@@ -37,8 +37,11 @@ def _spread(tol) -> list:
         ok = q.passed(crit)
         if not ok:
             failed.append(i)
-        rows.append([st.esc(q.label), f"{st.num(q.nominal, 4)} {u}", f"{st.num(q.p_low, 4)} {u}",
-                     f"{st.num(q.p_high, 4)} {u}", f"{st.num(q.limit, 4)} {u}",
+        def cell(x, q=q, u=u):  # noise below the unit's resolution prints as 0
+            return f"{st.check_pair(x, None, q.unit, 4)[0]} {u}"
+
+        rows.append([st.esc(q.label), cell(q.nominal), cell(q.p_low), cell(q.p_high),
+                     cell(q.limit),
                      _pct(q.fraction_over_limit), st.met(ok)])
     return [data_table(["Output", "Nominal", "p0.135", "p99.865", "Limit", "Over limit",
                         "Result"], rows, [38, 22, 22, 22, 22, 22, 22],

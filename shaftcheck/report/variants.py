@@ -21,7 +21,7 @@ def _unit(c) -> str:
 
 def _cell(c, governing: bool) -> str:
     """Value and verdict of one check of one variant; the governing variant's value in bold."""
-    value = st.num(c.value, 3) + _unit(c)
+    value = st.check_pair(c.value, c.limit, c.unit)[0] + _unit(c)
     value = f"<b>{value}</b>" if governing else value
     return f"{value}<br/>{st.met(c.passed)}"
 
@@ -39,7 +39,7 @@ def cases_table(v) -> list:
         w = case.worst
         changes = "; ".join(st.esc(x) for x in case.changes) or "the base design"
         torque = case.load_cases.get("design")
-        worst = "-" if w is None else f"{st.esc(w.id)} ({st.num(w.value, 3)}{_unit(w)})"
+        worst = "-" if w is None else f"{st.esc(w.id)} ({st.check_pair(w.value, w.limit, w.unit)[0]}{_unit(w)})"
         name = f"<b>{st.esc(case.name)}</b>" if case.name == v.governing else st.esc(case.name)
         rows.append([name, changes, "-" if torque is None else st.num(torque, 4), worst,
                      st.met(case.verdict == "pass")])
