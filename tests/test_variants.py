@@ -167,8 +167,8 @@ def test_geometry_is_solved_once_for_every_variant(monkeypatch):
 
 def test_each_shaft_whirl_is_solved_once_for_every_variant(monkeypatch):
     """The first critical speed depends on the geometry alone: the line with three variants
-    solves the whirl model once per shaft, as its base design alone does, and every variant's
-    whirl row is the speed of the base design over the variant's own maximum shaft speed."""
+    solves the whirl model once per shaft, as its base design alone does, and every case still
+    has a whirl row per shaft."""
     import dataclasses
 
     from shaftcheck.methods import whirl

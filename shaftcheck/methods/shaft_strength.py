@@ -395,9 +395,14 @@ def _buckling(segments, material, torque: float,
     return tuple(out)
 
 
-def _whirl(segments, material, max_speed, joint_masses, supports, point_masses):
-    """Whirl on pinned supports at ``supports`` (positions [m] from the inboard end of the
-    first segment; the bar is extended with its end sections where a support lies outside)."""
+def whirl_critical_speeds(segments, material, joint_masses=(0.0, 0.0), supports=None,
+                 point_masses=()) -> tuple[float, float | None]:
+    """First bending critical speed [rad/s] and Dunkerley's lower bound [rad/s] (None without
+    masses) of a shaft on pinned supports at ``supports`` (positions [m] from the inboard end of
+    the first segment; None = the bar ends; the bar is extended with its end sections where a
+    support lies outside). Depends on the geometry, the material's E and density and the masses
+    only, not on the loads: a caller may compute it once and pass it to :func:`assess_shaft`
+    (``whirl_speeds``). Methods: :mod:`shaftcheck.methods.whirl`."""
     spans = wh.spans_from_segments(segments, material.elastic_modulus, material.density)
     bar = sum(s.length for s in segments)
     s0, s1 = (0.0, bar) if supports is None else (float(supports[0]), float(supports[1]))
@@ -415,6 +420,18 @@ def _whirl(segments, material, max_speed, joint_masses, supports, point_masses):
     masses = [(x, m) for x, m in masses if m > 0]
     w = wh.first_critical_speed(spans, masses, supports=(a, b))
     dk = wh.dunkerley_critical_speed(spans, masses, supports=(a, b)) if masses else None
+    return w, dk
+
+
+def _whirl(segments, material, max_speed, joint_masses, supports, point_masses, speeds=None):
+    """Whirl result on pinned supports (:func:`whirl_critical_speeds`; ``speeds`` = its result
+    when the caller has it already)."""
+    bar = sum(s.length for s in segments)
+    s0, s1 = (0.0, bar) if supports is None else (float(supports[0]), float(supports[1]))
+    if not s1 > s0:
+        raise ValueError("whirl supports must be two increasing positions")
+    w, dk = (whirl_critical_speeds(segments, material, joint_masses, supports, point_masses)
+             if speeds is None else speeds)
     return WhirlResult(w, max_speed, math.inf if max_speed == 0 else w / max_speed, dk,
                        supports=(s0, s1), span=s1 - s0)
 
@@ -450,7 +467,8 @@ def assess_shaft(segments: Sequence[Segment], material, load_cases: Mapping[str,
                  joint_masses: tuple[float, float] = (0.0, 0.0),
                  whirl_supports: tuple[float, float] | None = None,
                  point_masses: Sequence[tuple[float, float]] = (),
-                 quality_class: str = bk.DEFAULT_QUALITY_CLASS) -> ShaftStrength:
+                 quality_class: str = bk.DEFAULT_QUALITY_CLASS,
+                 whirl_speeds: tuple[float, float | None] | None = None) -> ShaftStrength:
     """Assess one shaft.
 
     Parameters:
@@ -470,6 +488,9 @@ def assess_shaft(segments: Sequence[Segment], material, load_cases: Mapping[str,
         the adjacent end segment's section (the stub inside the joint).
       point_masses: further (x [m] from the inboard end of the first segment, mass [kg]).
       quality_class: EN 1993-1-6 fabrication quality class of tubes, "A" | "B" | "C".
+      whirl_speeds: (critical speed, Dunkerley bound) [rad/s] of these segments, material,
+        masses and supports, from :func:`whirl_critical_speeds`, when the caller has them
+        already (a line's variants share them); None = computed here.
     """
     if not segments:
         raise ValueError("a shaft needs at least one segment")
@@ -497,7 +518,7 @@ def assess_shaft(segments: Sequence[Segment], material, load_cases: Mapping[str,
         tuple(sections), static, fat, dmg,
         _buckling(segments, material, tmax, quality_class),
         _whirl(segments, material, max_shaft_speed, joint_masses, whirl_supports,
-               point_masses),
+               point_masses, whirl_speeds),
         _plastic(sections, ssy), mean_stress, reliability, ssy,
         fg.shear_ultimate(material.ultimate_strength), notes,
         _margins(sections, load_cases, ssy, per), tuple(notices))

@@ -8,7 +8,9 @@ context holds the design and computes on first use, then caches:
 * the travel x rack grids of every study, and the corner poses of each side solved **once** on
   the union of those grids (:meth:`Context.poses` slices them for each study);
 * the intermediate-shaft lengths (given, or placed by the bearing study);
-* the joint geometry of both sides at the design position.
+* the joint geometry of both sides at the design position;
+* the first critical (whirl) speed of each shaft (``whirl_speeds``, filled by the strength
+  study).
 
 All values are SI (m, rad, N*m, N*m/rad). ``corner_solves`` counts the corner solves, so a test
 can hold the "one solve per side" promise.
@@ -88,6 +90,10 @@ class Context:
         self.bearing_drive_duty = bearing_drive_duty
         self.corner_solves = 0
         self._poses: dict = {}
+        #: (side, shaft) -> (whirl inputs, (critical speed, Dunkerley bound) [rad/s]): the
+        #: strength study's whirl speeds, which depend on the geometry alone; shared with every
+        #: derived context (a line's variants), like the poses
+        self.whirl_speeds: dict = {}
 
     # --- loads and stiffness ------------------------------------------------------------------
     @cached_property
@@ -252,9 +258,9 @@ class Context:
     def derive(self, design) -> Context:
         """A context for ``design``, a variant of this context's design that differs only in
         [vehicle], [powertrain] and [loads] (model.limits.VARIANT_KEYS): it keeps this
-        context's options, shares the corner poses (of the union grid and of every other grid)
-        and every geometry value (computed here first, once); the rest (the load cases, ...) is
-        its own. Its ``corner_solves`` counts only solves it makes itself."""
+        context's options, shares the corner poses (of the union grid and of every other grid),
+        the whirl speeds and every geometry value (computed here first, once); the rest (the
+        load cases, ...) is its own. Its ``corner_solves`` counts only solves it makes itself."""
         import copy
 
         for side in SIDES:

@@ -283,14 +283,36 @@ def history_damage(sections, cycles, repeats: float, material, criterion: str,
     return worst[1]
 
 
+def shared_whirl_speeds(ctx, name: str, shaft: str, segs, material, supports):
+    """(first critical speed, Dunkerley bound) [rad/s] of one shaft, computed once per context
+    family: the speeds depend on the segments, the material's E and density and the supports
+    only, so a line's variants (:meth:`Context.derive`) reuse the base design's. Stored in
+    ``ctx.whirl_speeds`` under (side, shaft) with its inputs; other inputs are computed anew."""
+    from shaftcheck.methods.shaft_strength import whirl_critical_speeds
+
+    cache = getattr(ctx, "whirl_speeds", None)
+    inputs = (tuple(segs), material.elastic_modulus, material.density,
+              tuple(float(x) for x in supports))
+    hit = cache.get((name, shaft)) if cache is not None else None
+    if hit is not None and hit[0] == inputs:
+        return hit[1]
+    speeds = whirl_critical_speeds(segs, material, supports=supports)
+    if cache is not None:
+        cache[(name, shaft)] = (inputs, speeds)
+    return speeds
+
+
 def _assess(design, ctx, name, shaft, segs, material, spectrum, high):
     from shaftcheck.methods.shaft_strength import assess_shaft, infinite_life_fatigue
 
     crit = design.criteria
+    supports = whirl_supports(ctx, name, shaft, segs)
     res = assess_shaft(segs, material, ctx.cases, spectrum, design.vehicle.max_wheel_speed,
                        mean_stress=crit.mean_stress_criterion,
                        reliability=crit.reliability_pct / 100,
-                       whirl_supports=whirl_supports(ctx, name, shaft, segs))
+                       whirl_supports=supports,
+                       whirl_speeds=shared_whirl_speeds(ctx, name, shaft, segs, material,
+                                                        supports))
     hc = (infinite_life_fatigue(res.sections, high, material, crit.mean_stress_criterion)
           if res.fatigue is not None else None)
     sn, miner = None, ()
