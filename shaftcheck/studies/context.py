@@ -75,6 +75,14 @@ class DesignGeometry:
     shaft_axis: np.ndarray
 
 
+def _read_only(poses):
+    """The CornerPoses with its arrays marked read-only (a cached slice is shared by callers)."""
+    for value in vars(poses).values():
+        if isinstance(value, np.ndarray):
+            value.setflags(write=False)
+    return poses
+
+
 class Context:
     """Shared, lazily computed inputs of the studies of one design (see module docstring)."""
 
@@ -90,6 +98,8 @@ class Context:
         self.bearing_drive_duty = bearing_drive_duty
         self.corner_solves = 0
         self._poses: dict = {}
+        #: (side, travel bytes, rack bytes) -> read-only CornerPoses slice (:meth:`poses`)
+        self._slices: dict = {}
         #: (side, shaft) -> (whirl inputs, (critical speed, Dunkerley bound) [rad/s]): the
         #: strength study's whirl speeds, which depend on the geometry alone; shared with every
         #: derived context (a line's variants), like the poses
@@ -180,10 +190,18 @@ class Context:
 
         Every grid a study of this context uses is part of one union grid, solved once per
         side; other values (a caller's own grid) are solved on their own, once per grid, and
-        counted.
+        counted. Each (side, grid) slice is made once and shared by the derived contexts; its
+        arrays are read-only.
         """
         travel = self.travel if travel is None else np.atleast_1d(np.asarray(travel, float))
         rack = self.rack if rack is None else np.atleast_1d(np.asarray(rack, float))
+        key = (side, travel.tobytes(), rack.tobytes())
+        found = self._slices.get(key)
+        if found is None:
+            found = self._slices[key] = _read_only(self._slice(side, travel, rack))
+        return found
+
+    def _slice(self, side: str, travel: np.ndarray, rack: np.ndarray):
         ut, ur = self._union
         ti, rj = np.searchsorted(ut, travel), np.searchsorted(ur, rack)
         inside = (np.all(ti < ut.size) and np.all(rj < ur.size)
