@@ -39,7 +39,8 @@ def cases_table(v) -> list:
         w = case.worst
         changes = "; ".join(st.esc(x) for x in case.changes) or "the base design"
         torque = case.load_cases.get("design")
-        worst = "-" if w is None else f"{st.esc(w.id)} ({st.check_pair(w.value, w.limit, w.unit)[0]}{_unit(w)})"
+        worst = "-" if w is None else \
+            f"{st.esc(w.id)} ({st.check_pair(w.value, w.limit, w.unit)[0]}{_unit(w)})"
         name = f"<b>{st.esc(case.name)}</b>" if case.name == v.governing else st.esc(case.name)
         rows.append([name, changes, "-" if torque is None else st.num(torque, 4), worst,
                      st.met(case.verdict == "pass")])
