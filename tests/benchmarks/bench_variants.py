@@ -8,10 +8,10 @@ and ten variants). Two measures:
 
 * in-process: ``evaluate`` of the example against ``evaluate_variants`` of the line, each after
   a warm-up, best of several runs;
-* end to end: ``shaftcheck check`` of each file (interpreter start and imports included), median;
-* in-process again with the whirl FE memoized by its inputs inside this script only (a proposal,
-  not the product: the first critical speed depends on the geometry alone, yet the strength
-  study computes it for every variant, and it is most of a variant's time).
+* end to end: ``shaftcheck check`` of each file (interpreter start and imports included), median.
+
+The whirl speeds depend on the geometry alone and are computed once per shaft for the whole line
+(the context shares them with its variants), as the corner poses are.
 
 Each is given as CPU time (this process, or the child processes) beside the wall time: on a
 shared machine the wall time mostly measures the other jobs. numpy's BLAS runs on one thread here
@@ -73,26 +73,6 @@ def best(fn) -> tuple[float, float]:
     return min(cpu), min(wall)
 
 
-def whirl_memo():
-    """Memoize methods.whirl.first_critical_speed in this process; returns the cache's clear."""
-    from functools import lru_cache
-
-    from shaftcheck.methods import whirl
-
-    real = whirl.first_critical_speed
-
-    @lru_cache(maxsize=256)
-    def cached(spans, masses, supports, per_span):
-        return real(list(spans), list(masses), supports, per_span)
-
-    def memo(spans, point_masses=(), supports=None, per_span=20):
-        return cached(tuple(spans), tuple(tuple(m) for m in point_masses),
-                      None if supports is None else tuple(supports), per_span)
-
-    whirl.first_critical_speed = memo
-    return cached.cache_clear
-
-
 def median_cli(path: Path) -> tuple[float, float]:
     """(CPU of the child, wall) [s] of ``shaftcheck check path``, medians of RUNS."""
     cpu, wall = [], []
@@ -115,7 +95,6 @@ def show(label: str, one: tuple, many: tuple, how: str) -> None:
 
 
 def main() -> None:
-    figures = {}
     for example in ("wren_intermediate", "wren_tubular"):
         src = ROOT / "example_designs" / f"{example}.toml"
         with open(src, "rb") as fh:
@@ -128,15 +107,9 @@ def main() -> None:
             t1 = best(lambda d=one: evaluate(d))
             t10 = best(lambda d=many: evaluate_variants(d))
             c1, c10 = median_cli(src), median_cli(line)
-            figures[example] = (one, many)
         show(f"{example}, in-process evaluation:", t1, t10, f"best of {RUNS}")
         show(f"{example}, shaftcheck check (end to end):", c1, c10, f"median of {RUNS}")
 
-    clear = whirl_memo()
-    for example, (one, many) in figures.items():
-        m1 = best(lambda d=one: (clear(), evaluate(d)))
-        m10 = best(lambda d=many: (clear(), evaluate_variants(d)))
-        show(f"{example}, whirl memoized (proposal):", m1, m10, f"best of {RUNS}")
 
 
 if __name__ == "__main__":
