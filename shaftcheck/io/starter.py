@@ -101,13 +101,22 @@ HEADER = """\
 #                  optional stiffness_diameter_mm); fillet_radius_mm = fillet at the step into
 #                  the next segment
 #   [<side>.intermediate]  output_point_mm, bearing_offset_mm, length_range_mm,
-#                  bearing_dynamic_rating_n, [[<side>.intermediate.segments]], optional length_mm
+#                  bearing_dynamic_rating_n, bearing_static_rating_n, joint_pitch_radius_mm,
+#                  [[<side>.intermediate.segments]], optional length_mm
 #                  (left out: shaftcheck places the bearing) and material; the side then gives
 #                  no inboard_centre_mm
 #   [suspension]   model = "table" with left_table = "left.csv" (columns: travel_mm, rack_mm,
 #                  wheel_centre_x_mm, wheel_centre_y_mm, wheel_centre_z_mm, spindle_x, spindle_y,
 #                  spindle_z, optional lower_ball_joint_*_mm, strut_top_*_mm, tie_rod_outer_*_mm)
 #   [materials.<id>]  your own material (shadows the library; see `shaftcheck materials`)
+#   [project]      document_number, part_number, prepared_by, checked_by, approved_by and
+#                  [[project.revisions]] (revision, date, description): the report's release
+#                  record
+#   [loads]        torque_history = "history.csv" with history_distance_km and design_life_km:
+#                  damage from every rainflow cycle of a measured history (`shaftcheck spectrum`)
+#   [[variants]]   name plus [vehicle], [powertrain] and [loads] values of one variant of the
+#                  vehicle line; every check runs for the base design and each variant
+#   docs/design-file.md in the repository lists every key with unit, default and range.
 #
 # The numbers below describe an invented compact front-wheel-drive car (no real vehicle or
 # maker): transverse engine, gearbox on the left, equal-length halfshafts with an intermediate
@@ -206,6 +215,8 @@ output_point_mm = [12.0, 40.0, 280.0]   # right side-gear output reference point
 bearing_offset_mm = 35.0
 length_range_mm = [220.0, 340.0]        # no length_mm: shaftcheck places the bearing
 bearing_dynamic_rating_n = 15000.0
+bearing_static_rating_n = 7800.0        # C0: sets the ISO 281 X, Y factors
+joint_pitch_radius_mm = 22.0            # plunging joint's pitch radius: its axial forces
 material = "steel_1541_ih"
 [[right.intermediate.segments]]
 kind = "spline"
