@@ -11,8 +11,9 @@ opens (Python audit hook, event "open") and its peak memory. A probe passes when
   (``--tables-from``), and none of the planted secrets or system files appears in the output,
 * an error is one line, and the peak memory stays below 400 MB.
 
-The probes: table paths that leave the folder (``../``, absolute, a link, the password file, the
-process environment, devices, a named pipe, a folder, an oversized file); a design file that is
+The probes: measured-history and table paths that leave the folder (``../``, absolute, a link,
+the password file, the process environment, devices, a named pipe, a folder, an oversized file);
+a design file that is
 a pipe, a device, a folder or oversized; and the input-size rows of the confined-reads issue
 (segments per shaft, project-name length, corner-table rows, spectrum bins).
 """
@@ -203,7 +204,28 @@ def probes(base: Path):
                                        "cycles": 100.0}] * n
         return edit
 
+    def history(target):
+        def edit(d):
+            d["loads"].update(torque_history=target, history_distance_km=10.0,
+                              design_life_km=200000.0)
+        return edit
+
+    def history_probe(name, target, prepare=None):
+        def setup(folder):
+            if prepare:
+                prepare(folder)
+            path = folder / "design.toml"
+            path.write_text(_design(history(target)))
+            return path
+        return name, setup, [], [], (2,)
+
     out = [
+        history_probe("history ../outside.csv", "../outside.csv"),
+        history_probe("history /etc/passwd", "/etc/passwd"),
+        history_probe("history /proc/self/environ", "/proc/self/environ"),
+        history_probe("history /dev/zero", "/dev/zero"),
+        history_probe("history named pipe", "pipe.csv", fifo),
+        history_probe("history 2 GiB sparse file", "big.csv", sparse),
         table_probe("table ../outside.csv", "../outside.csv"),
         table_probe("table absolute outside", str(outside)),
         table_probe("table link to outside", "link.csv", link),
