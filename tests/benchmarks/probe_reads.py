@@ -150,14 +150,18 @@ def probes(base: Path):
     outside.write_text(f"{SECRET},x\n1,2\n")
     big_rows = 0
 
-    def table_probe(name, target, prepare=None, extra=(), allowed=(), expect=(2,)):
+    def path_probe(name, target, prepare=None, extra=(), allowed=(), expect=(2,),
+                   key=_table_model):
+        """A design whose file-path key (``key(target)`` edits it in) names ``target``."""
         def setup(folder):
             if prepare:
                 prepare(folder)
             path = folder / "design.toml"
-            path.write_text(_design(_table_model(target)))
+            path.write_text(_design(key(target)))
             return path
         return name, setup, list(extra), list(allowed), expect
+
+    table_probe = path_probe
 
     def design_probe(name, make, expect=(2,)):
         return name, make, [], [], expect
@@ -211,13 +215,7 @@ def probes(base: Path):
         return edit
 
     def history_probe(name, target, prepare=None):
-        def setup(folder):
-            if prepare:
-                prepare(folder)
-            path = folder / "design.toml"
-            path.write_text(_design(history(target)))
-            return path
-        return name, setup, [], [], (2,)
+        return path_probe(name, target, prepare, key=history)
 
     out = [
         history_probe("history ../outside.csv", "../outside.csv"),
