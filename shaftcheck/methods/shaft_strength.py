@@ -209,7 +209,7 @@ class SectionMargin:
     nominal_safety: float
     notch_safety: float
     fatigue_safety: float  # inf without a spectrum
-    damage: float  # 0 without a spectrum, NaN when a bin is refused
+    damage: float  # 0 without a spectrum; a refused bin counts its cycles n (N = 1)
 
 
 @dataclass(frozen=True)

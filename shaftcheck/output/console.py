@@ -99,7 +99,7 @@ def _detail(c) -> str | None:
     its governing variant when the design has [[variants]]."""
     parts = [f"variant {c.variant}"] if getattr(c, "variant", "") else []
     parts += [c.location] if c.location else []
-    if (c.value != c.value or getattr(c, "outside_method", False)) and c.note:
+    if (math.isnan(c.value) or c.outside_method) and c.note:
         parts.append(c.note)
     return "; ".join(parts) or None
 

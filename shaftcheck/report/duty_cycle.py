@@ -155,11 +155,11 @@ def duty_cycle(result) -> list:
         hd = getattr(e, "history_damage", None)
         if hd is None:
             continue
-        ok = math.isfinite(hd.total) and hd.total <= crit.miner_damage_max
+        ok = not hd.refused and hd.total <= crit.miner_damage_max  # as the check's rule
         if not ok:
             bad.append(len(rows))
         loc = hd.location
-        rows.append([e.label, st.num(hd.total, 3) if math.isfinite(hd.total) else "refused",
+        rows.append([e.label, st.num(hd.total, 3),
                      f"{crit.miner_damage_max:g}", st.met(ok),
                      st.esc(f"seg. {loc.segment} {loc.kind}, {loc.where}"),
                      f"{hd.cycles:,.1f} x {_count(hd.repeats)}",

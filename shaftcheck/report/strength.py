@@ -66,7 +66,7 @@ def _rows(e, crit) -> list:
             ("Fatigue safety, worst bin (finite-life bins judged by Miner)",
              _f(s.fatigue.safety) + _small(st.esc(f"bin {s.fatigue.bin}"))),
             (f"Miner damage D of the duty cycle (&lt;= {crit.miner_damage_max:g})",
-             (_f(dmg.total, 3) if math.isfinite(dmg.total) else "refused")
+             _f(dmg.total, 3)
              + _small(st.esc(f"{st.sig(dmg.repeats)} repeats; {_where(dmg.location)}"))),
         ]
     rows += [
@@ -101,7 +101,7 @@ def section_table(e) -> list:
     for m in e.strength.margins:
         rows.append([st.esc(_where(m.location)), _f(m.kts), _f(m.kfs), _f(m.nominal_safety),
                      _f(m.notch_safety), _f(m.fatigue_safety),
-                     st.num(m.damage, 3) if math.isfinite(m.damage) else "refused"])
+                     st.num(m.damage, 3)])
     return [data_table(["Section", "K_ts", "K_fs", "Nominal", "Notch", "Fatigue*", "Miner D"],
                        rows, [56, 16, 16, 20, 20, 20, 22], right=(1, 2, 3, 4, 5, 6)),
             caption("Static safeties at the largest load case: nominal (the criterion) and "
@@ -170,8 +170,8 @@ def _miner_table(members: list) -> list:
                 else "infinite (below S_se)" if math.isinf(r.life) else st.num(r.life, 3))
         rows.append([str(r.bin), f"{r.torque_min:.0f} ... {r.torque_max:.0f}",
                      st.num(r.cycles, 3), st.fixed(r.amplitude * MPA, 1), life,
-                     st.num(r.damage, 3) if math.isfinite(r.damage) else "-"])
-    total = st.num(dmg.total, 3) if math.isfinite(dmg.total) else "refused"
+                     st.num(r.damage, 3)])
+    total = st.num(dmg.total, 3)
     rows.append(["", "total", "", "", f"{st.sig(dmg.repeats)} repeats to D = 1",
                  f"<b>{total}</b>"])
     return [data_table(["Bin", "Torque [N*m]", "Cycles n", "Amplitude [MPa]",
