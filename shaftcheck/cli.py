@@ -233,9 +233,9 @@ def size(design: Path = DesignArg,
          both: bool = typer.Option(False, "--both", help="Resize one segment on each side to a "
                                    "common stiffness: least total mass, every check met."),
          wall: float | None = typer.Option(None, help="Wall for the free-diameter tube "
-                                              "\\[mm] (default: the segment's, else 3.0)."),
+                                              "[mm] (default: the segment's, else 3.0)."),
          outer_diameter: float | None = typer.Option(
-             None, help="Outer diameter for the free-wall tube \\[mm] (default: the segment's)."),
+             None, help="Outer diameter for the free-wall tube [mm] (default: the segment's)."),
          top: int = typer.Option(8, help="How many standard sizes to list."),
          json_: bool = JsonOpt):
     """Sections that bring one side's whole stiffness to the other side's, ranked by mass.
@@ -334,8 +334,8 @@ def bearing(design: Path = DesignArg, json_: bool = JsonOpt,
 @app.command()
 @guarded
 def sweep(design: Path = DesignArg,
-          travel_step: float = typer.Option(10.0, help="Wheel-travel step \\[mm]."),
-          rack_step: float = typer.Option(25.0, help="Rack-travel step \\[mm]."),
+          travel_step: float = typer.Option(10.0, help="Wheel-travel step [mm]."),
+          rack_step: float = typer.Option(25.0, help="Rack-travel step [mm]."),
           csv: str | None = typer.Option(None, "--csv", help="Also write the grid as CSV."),
           overwrite: bool = typer.Option(False, help="Allow --csv to replace an existing file."),
           json_: bool = JsonOpt):
@@ -533,21 +533,21 @@ def spectrum(history: Path = typer.Argument(..., show_default=False, help="Time 
                                             "torque_left_nm, torque_right_nm; optional "
                                             "travel_left_mm, travel_right_mm, rack_mm)."),
              distance_km: float | None = typer.Option(None, "--distance-km", help="Distance "
-                                                      "driven while recording \\[km]."),
+                                                      "driven while recording [km]."),
              life_km: float | None = typer.Option(None, "--life-km", help="Design-life distance "
-                                                  "\\[km]: the history is repeated life / "
+                                                  "[km]: the history is repeated life / "
                                                   "distance times."),
              bins: int = typer.Option(8, "--bins", help="Torque-range bins (1 to 24; 4 mean "
                                       "bins)."),
              toml: str | None = typer.Option(None, "--toml", help="Write the "
-                                             "\\[\\[loads.spectrum]] block to this file."),
+                                             "[[loads.spectrum]] block to this file."),
              chart: str | None = typer.Option(None, "--chart", help="Write a histogram of the "
                                               "counted cycles (.pdf; .png needs reportlab's "
                                               "renderPM backend)."),
              overwrite: bool = typer.Option(False, help="Allow --toml/--chart to replace a "
                                             "file."),
              json_: bool = JsonOpt):
-    """Rainflow-count a measured torque history (ASTM E1049-85) into \\[\\[loads.spectrum]] bins.
+    """Rainflow-count a measured torque history (ASTM E1049-85) into [[loads.spectrum]] bins.
 
     Example: shaftcheck spectrum history.csv --distance-km 12 --life-km 240000
     """
