@@ -116,7 +116,8 @@ def _bearing(b) -> list:
          f"{b.bearing_offset * 1e3:.1f} mm inboard of the joint"),
         ("Inboard joint centre", f"{st.point(b.inboard_joint_centre * 1e3)} mm"),
         ("Left-right joint angle balance", f"largest difference "
-         f"{st.num(b.max_angle_difference * RAD2DEG, 3)} deg over travel, limit "
+         f"{st.check_pair(b.max_angle_difference * RAD2DEG, None, 'deg')[0]} deg over travel, "
+         "limit "
          f"{b.limit * RAD2DEG:.1f} deg - {st.met(b.criterion_met)}"),
     ]
     if life is not None:
