@@ -97,3 +97,16 @@ def test_shock_peak_torque_ratio():
     # regression value: k_short/k_long = 8688.9/4678.6 -> sqrt(1.857) = 1.363.
     assert wh.shock_peak_torque_ratio(8688.9, 4678.6) == pytest.approx(1.363, abs=6e-4)
     assert wh.shock_peak_torque_ratio(4678.6, 8688.9) == pytest.approx(1.363, abs=6e-4)
+
+
+def test_default_mesh_is_converged_on_stepped_shafts():
+    # Mesh check (regression, our own model): the default length rule gives the first critical
+    # speed of a stepped shaft with short spline ends and joint masses within 1e-6 of a mesh
+    # with eight times as many elements (the h^4 convergence of Hermite elements).
+    spans = [span(0.0048, 0.028), span(0.03, 0.028), span(0.42, 0.026), span(0.03, 0.028),
+             span(0.0048, 0.028)]
+    masses, supports = [(0.0, 1.4), (0.4896, 1.9)], (0.0, 0.4896)
+    coarse = wh.first_critical_speed(spans, masses, supports)
+    fine = wh.first_critical_speed(spans, masses, supports, 8 * wh.ELEMENTS)
+    assert coarse == pytest.approx(fine, rel=1e-6)
+    assert coarse != fine  # the two meshes differ: the comparison is not of one model with itself
