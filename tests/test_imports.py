@@ -32,7 +32,7 @@ def _floor_of(module: str) -> str:
         raise ValueError(module)
     if len(parts) == 1 or parts[1] in ("cli", "__main__"):
         return "cli"  # the package itself is the public facade over every floor
-    if parts[1] in ("errors", "units"):
+    if parts[1] in ("errors", "units", "records"):
         return "base"
     return parts[1]
 

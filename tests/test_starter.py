@@ -11,7 +11,7 @@ from __future__ import annotations
 import json
 import re
 import tomllib
-from dataclasses import asdict, dataclass, fields
+from dataclasses import asdict, fields
 
 import pytest
 from conftest import run_cli
@@ -20,6 +20,7 @@ from shaftcheck.io import starter
 from shaftcheck.io.design_file import load_design
 from shaftcheck.model.criteria import Criteria
 from shaftcheck.model.limits import OPTIONAL, REQUIRED, TABLES
+from shaftcheck.records import record
 
 
 @pytest.fixture(scope="module")
@@ -80,7 +81,7 @@ def test_header_defaults_are_the_design_file_table():
 
 
 def test_defaults_are_generated_not_typed(monkeypatch):
-    @dataclass(frozen=True)
+    @record  # a record's subclass is a record (shaftcheck.records)
     class Other(Criteria):
         stiffness_mismatch_max_pct: float = 7.25
         static_safety_min: float = 1.85

@@ -24,7 +24,8 @@ Donnell's moderate-length formula.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+
+from shaftcheck.records import record
 
 #: Boundaries of EN 1993-1-6 Annex D: short below omega = 10, long above 8.7 r/t.
 SHORT_OMEGA = 10.0
@@ -54,7 +55,7 @@ def _short_c_tau(omega: float, r_over_t: float, short_form: str) -> float:
     raise ValueError("short_form must be '2007' or 'revised'")
 
 
-@dataclass(frozen=True)
+@record
 class ShellBuckling:
     """EN 1993-1-6 Annex D elastic critical shear stress of a tube in torsion."""
 
@@ -151,7 +152,7 @@ GAMMA_M1 = 1.1  # EN 1993-1-6 Table 4.2 (recommended value)
 DEFAULT_QUALITY_CLASS = "B"
 
 
-@dataclass(frozen=True)
+@record
 class ShearBucklingResistance:
     """EN 1993-1-6 elastic-plastic shear buckling of a tube in torsion.
 

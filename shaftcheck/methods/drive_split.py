@@ -11,9 +11,9 @@ the torque-bias split TBR/(1 + TBR) are derived for this project (docs/methods.m
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-
 import numpy as np
+
+from shaftcheck.records import record
 
 DIFFERENTIAL_KINDS = ("open", "limited_slip", "locked")
 
@@ -30,7 +30,7 @@ def bias_split(torque_bias_ratio) -> np.ndarray:
     return tbr / (1.0 + tbr)
 
 
-@dataclass(frozen=True)
+@record
 class SplitMu:
     """Quasi-static split-mu result: torques [N*m], forces [N], delta_moment [N*m] (the
     drive-force steering moment difference (F_high - F_low) r_a, joint-angle terms excluded)."""
@@ -102,7 +102,7 @@ def quasi_static_side_torques(carrier_torque, kind, torque_bias_ratio=1.0, capac
 # ---- CV-joint efficiency (from memory, ``cv_joint_efficiency_estimate``) -------------------
 
 
-@dataclass(frozen=True)
+@record
 class JointEfficiency:
     """Linear efficiency model eta(beta) = eta_0 - loss_per_rad |beta|, kept in [eta_min, 1]
     (from memory, ``cv_joint_efficiency_estimate``).

@@ -31,11 +31,11 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass
 
 import numpy as np
 
 from shaftcheck.methods.stress_concentration import KPSI
+from shaftcheck.records import record
 
 #: Shigley 9th ed. Table 6-2, p. 288: surface-factor coefficients (a with S_ut in MPa, b).
 SURFACE_COEFFICIENTS = {
@@ -144,7 +144,7 @@ def endurance_limit_prime(ultimate_strength: float) -> float:
     return min(0.5 * ultimate_strength, ENDURANCE_CAP)
 
 
-@dataclass(frozen=True)
+@record
 class MarinFactors:
     """Marin factors and the resulting torsional endurance limit S_se [Pa]."""
 
@@ -289,7 +289,7 @@ def fatigue_strength_fraction(ultimate_strength: float) -> tuple[float, bool]:
     return 1.06 - 2.8e-3 * s_fit + 6.9e-6 * s_fit**2, s <= 200.0
 
 
-@dataclass(frozen=True)
+@record
 class BasquinLine:
     """S-N line S_f = a N^b, 10^3 <= N <= 10^6; a [Pa], b [-], endurance S_se [Pa].
 
@@ -384,7 +384,7 @@ def basquin_torsion(ultimate_strength: float, shear_endurance: float) -> Basquin
                    label="project construction f(S_ut) S_su at 10^3 cycles (not used)")
 
 
-@dataclass(frozen=True)
+@record
 class MinerResult:
     """Miner damage of a duty cycle: per bin and total; life in repeats of the whole spectrum.
 

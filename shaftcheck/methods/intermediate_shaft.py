@@ -27,7 +27,6 @@ revolutions, seconds or metres (the caller converts to hours and km).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 from typing import NamedTuple
 
 import numpy as np
@@ -35,6 +34,7 @@ import numpy as np
 from shaftcheck.methods.halfshaft_geometry import joint_geometry
 from shaftcheck.methods.joints import halfshaft_loads
 from shaftcheck.methods.strut_corner import CornerPoses, unit
+from shaftcheck.records import record
 
 #: Life exponent p of ISO 281 for ball bearings [-] ([M], from memory).
 BALL_LIFE_EXPONENT = 3.0
@@ -82,7 +82,7 @@ def golden_section_minimum(f, lo: float, hi: float, xatol: float = PLACEMENT_XAT
     return float(best[0]), float(best[1])
 
 
-@dataclass(frozen=True)
+@record
 class BearingPlacement:
     """Result of :func:`place_bearing`.
 

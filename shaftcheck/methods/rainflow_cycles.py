@@ -29,10 +29,12 @@ from __future__ import annotations
 
 import itertools
 import math
-from dataclasses import dataclass, field
+from dataclasses import field
 from functools import cached_property
 
 import numpy as np
+
+from shaftcheck.records import record
 
 SIDES = ("left", "right")
 #: bounds of the bin grid (docs/methods.md §2.4); the design file takes at most
@@ -60,7 +62,7 @@ def reversals(series) -> np.ndarray:
     return idx
 
 
-@dataclass(frozen=True, eq=False)
+@record(eq=False)
 class CountedCycles:
     """Rainflow cycles of one torque series: lower and upper torque [N*m] of each cycle and its
     count (1.0 a full cycle, 0.5 a half cycle), in the order the count closes them; reversals:
@@ -107,7 +109,7 @@ def count_cycles(series) -> CountedCycles:
     return CountedCycles(mean - rng / 2, mean + rng / 2, count.copy(), int(rev.size))
 
 
-@dataclass(frozen=True, eq=False)
+@record(eq=False)
 class TorqueHistory:
     """A measured (or generated) time history of drive torque and, optionally, wheel travel and
     rack travel, SI.
@@ -168,7 +170,7 @@ class TorqueHistory:
         return w
 
 
-@dataclass(frozen=True)
+@record
 class SpectrumBin:
     """One block of the binned spectrum: torques [N*m] of the block, the counted cycles of each
     side in the bin (as measured, half cycles 0.5), and the cycles written to the design file:
@@ -188,7 +190,7 @@ class SpectrumBin:
         return 0.5 * (self.torque_max + self.torque_min)
 
 
-@dataclass(frozen=True)
+@record
 class BinnedSpectrum:
     """Bins of the counted cycles of one or more sides (see :func:`bin_cycles`).
 

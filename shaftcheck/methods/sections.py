@@ -18,9 +18,9 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass
 
 from shaftcheck.methods.stress_concentration import shoulder_fillet_kts
+from shaftcheck.records import record
 
 SEGMENT_KINDS = ("solid", "tube", "spline")
 
@@ -28,7 +28,7 @@ SEGMENT_KINDS = ("solid", "tube", "spline")
 SPLINE_STIFFNESS_FRACTION = 0.25
 
 
-@dataclass(frozen=True)
+@record
 class Segment:
     """One prismatic piece of a shaft, in SI units.
 
@@ -166,7 +166,7 @@ def compliance_shares(stiffnesses: Sequence[float]) -> list[float]:
 DEFAULT_FILLET_R_OVER_D = 0.02
 
 
-@dataclass(frozen=True)
+@record
 class StepConcentration:
     """The shoulder-fillet concentration at the step between segment ``index`` and ``index + 1``.
 
@@ -261,7 +261,7 @@ def step_concentrations(segments: Sequence[Segment]) -> list[StepConcentration]:
     return out
 
 
-@dataclass(frozen=True)
+@record
 class SegmentStress:
     """Shear stresses of one segment at a torque [Pa]."""
 

@@ -35,7 +35,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass, field
+from dataclasses import field
 
 import numpy as np
 
@@ -48,12 +48,13 @@ from shaftcheck.methods.stress_concentration import (
     notch_sensitivity_torsion,
     spline_root_kts_estimate,
 )
+from shaftcheck.records import record
 
 DEFAULT_RELIABILITY = 0.99  # k_e = 0.81389 with the exact normal quantile
 RPM = 30.0 / math.pi  # rpm per rad/s
 
 
-@dataclass(frozen=True)
+@record
 class Location:
     """Where a result applies: segment index (0-based), its kind, and the feature."""
 
@@ -65,7 +66,7 @@ class Location:
         return {"segment": self.segment, "kind": self.kind, "where": self.where}
 
 
-@dataclass(frozen=True)
+@record
 class Section:
     """One assessed section: stress diameters, notch factors and its torsional endurance."""
 
@@ -131,7 +132,7 @@ def shaft_sections(segments: Sequence[Segment], material,
 
 # --- result records ---------------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record
 class StaticResult:
     """Static shear of one load case: nominal safety (the criterion) and notch first-yield safety.
 
@@ -157,7 +158,7 @@ class StaticResult:
         return self.nominal_safety
 
 
-@dataclass(frozen=True)
+@record
 class FatigueResult:
     """Infinite-life safety at the worst spectrum bin of the governing section."""
 
@@ -172,7 +173,7 @@ class FatigueResult:
     references: tuple[str, ...]
 
 
-@dataclass(frozen=True)
+@record
 class DamageResult:
     """Miner damage of the spectrum at the section with the largest total damage.
 
@@ -198,7 +199,7 @@ class DamageResult:
         return any(self.refused)
 
 
-@dataclass(frozen=True)
+@record
 class SectionMargin:
     """Margins of one section: nominal and notch static safety at the largest load case,
     infinite-life fatigue safety at its worst bin and its Miner damage."""
@@ -212,7 +213,7 @@ class SectionMargin:
     damage: float  # 0 without a spectrum; a refused bin counts its cycles n (N = 1)
 
 
-@dataclass(frozen=True)
+@record
 class BucklingResult:
     """EN 1993-1-6 torsional buckling of one tube segment at the largest torque.
 
@@ -241,7 +242,7 @@ class BucklingResult:
         return self.r_over_t <= self.exemption_limit
 
 
-@dataclass(frozen=True)
+@record
 class WhirlResult:
     """First bending critical speed on pinned supports at the joint centres, and its margin.
 
@@ -258,7 +259,7 @@ class WhirlResult:
     span: float = math.nan  # distance between the supports [m]
 
 
-@dataclass(frozen=True)
+@record
 class PlasticResult:
     """Elastic-perfectly-plastic twist-off estimates of the weakest section (tau_y = S_sy)."""
 
@@ -270,7 +271,7 @@ class PlasticResult:
     references: tuple[str, ...] = ("timoshenko_plastic_torsion", "shigley_ch5_de")
 
 
-@dataclass(frozen=True)
+@record
 class ShaftStrength:
     """All strength results of one shaft; SI inside, :meth:`to_dict` in trade units."""
 

@@ -9,12 +9,12 @@ joint. A joint without a given stiffness is rigid. Mismatch = 100 |k_L - k_R| / 
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 from shaftcheck.methods.sections import compliance_shares, segment_stiffness, series_stiffness
+from shaftcheck.records import record
 
 
-@dataclass(frozen=True)
+@record
 class Element:
     """One spring of a side: what it is, its stiffness [N*m/rad] and share of the twist."""
 
@@ -25,7 +25,7 @@ class Element:
     share: float
 
 
-@dataclass(frozen=True)
+@record
 class SideStiffness:
     side: str
     shaft: float  # the halfshaft bar's segments alone [N*m/rad]

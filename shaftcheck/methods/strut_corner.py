@@ -30,12 +30,13 @@ bad pose (travel-major order), never a silent NaN.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field, replace
+from dataclasses import field, replace
 
 import numpy as np
 
 from shaftcheck.errors import UnreachablePoseError
 from shaftcheck.methods.vectors import cross, dot, rotate, unit
+from shaftcheck.records import record
 
 # ``unit`` and ``rotate`` are still imported from here by a module that has not moved to
 # shaftcheck.methods.vectors yet; import them from there.
@@ -70,7 +71,7 @@ class _Alignment:
         return v + wv + cross(self.w, wv) / (1.0 + self.c)
 
 
-@dataclass(frozen=True)
+@record
 class StrutHardPoints:
     """Design-position hard points of one strut corner, vehicle axes [m].
 
@@ -125,7 +126,7 @@ class StrutHardPoints:
         return unit(self.strut_top - self.lower_ball_joint)
 
 
-@dataclass(frozen=True)
+@record
 class CornerPoses:
     """Poses of one corner over a travel x rack grid; every point array has shape (nt, nr, 3) [m].
 
@@ -179,7 +180,7 @@ class CornerPoses:
         return {n: getattr(self, n)[i, j] for n in names if getattr(self, n) is not None}
 
 
-@dataclass(frozen=True)
+@record
 class _Frame:
     """Constant geometry of the strut solve, derived from the hard points (all [m] or unit)."""
 

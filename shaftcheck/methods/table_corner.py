@@ -6,20 +6,19 @@ travel x rack grid and never extrapolated (a pose outside the table is refused).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-
 import numpy as np
 
 from shaftcheck.errors import DesignError, UnreachablePoseError
 from shaftcheck.methods.strut_corner import CornerPoses
 from shaftcheck.methods.vectors import unit
+from shaftcheck.records import record
 
 REQUIRED_COLUMNS = ("travel_mm", "rack_mm", "wheel_centre_x_mm", "wheel_centre_y_mm",
                     "wheel_centre_z_mm", "spindle_x", "spindle_y", "spindle_z")
 OPTIONAL_POINTS = ("lower_ball_joint", "strut_top", "tie_rod_outer")
 
 
-@dataclass(frozen=True)
+@record
 class TableCorner:
     """A corner given as rows of a full travel x rack grid.
 

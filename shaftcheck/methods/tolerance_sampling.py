@@ -60,11 +60,11 @@ resolution).
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 import numpy as np
 
 from shaftcheck.methods.sections import SPLINE_STIFFNESS_FRACTION
+from shaftcheck.records import record
 
 #: bins of the percentile histogram of one quantity (2**16: 0.5 MiB of counts)
 HISTOGRAM_BINS = 1 << 16
@@ -80,7 +80,7 @@ TOLERANCE_KEYS = ("diameter", "wall", "length", "joint_centre")
 SIDES = ("left", "right")
 
 
-@dataclass(frozen=True)
+@record
 class SampledInput:
     """One dimension that varies: ``name`` is the design-file key path of the dimension (e.g.
     ``left.segments[2].wall_mm``) or of the joint centre and coordinate
@@ -92,7 +92,7 @@ class SampledInput:
     sigma: float
 
 
-@dataclass(frozen=True)
+@record
 class ToleranceSamples:
     """Outputs of n samples: the mismatch 100 |k_L - k_R| / mean [%] and the joint-angle
     differences |left - right| [rad]; ``signed`` holds the same three without the absolute
@@ -104,7 +104,7 @@ class ToleranceSamples:
     signed: tuple = ()
 
 
-@dataclass(frozen=True)
+@record
 class _Seg:
     """A segment of the plan: nominal SI dimensions and the rows of z that vary them (or -1)."""
 
@@ -118,7 +118,7 @@ class _Seg:
     rows: tuple  # (length, outer or major, wall or minor): row of z, -1 = fixed
 
 
-@dataclass(frozen=True)
+@record
 class _SidePlan:
     segments: tuple  # of _Seg that vary
     fixed_compliance: float  # segments that do not vary and the joints [rad/(N*m)]
@@ -130,7 +130,7 @@ class _SidePlan:
     outboard_rows: tuple
 
 
-@dataclass(frozen=True)
+@record
 class SamplingPlan:
     """The inputs of one design's tolerance sampling and how each sample is evaluated."""
 

@@ -39,13 +39,12 @@ evaluated at T = 1 N*m scales to any torque.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-
 import numpy as np
 
 from shaftcheck.methods.halfshaft_geometry import joint_geometry
 from shaftcheck.methods.joints import halfshaft_loads
 from shaftcheck.methods.vectors import Z_AXIS, dot, rotate, unit_checked
+from shaftcheck.records import record
 
 #: Reference keys (shaftcheck.model.references) behind this module's numbers.
 REFERENCE_KEYS = ("iso8855_steer_sign", "cv_joint_bisector_moment", "joint_angle_steering_moment",
@@ -71,7 +70,7 @@ def forward_direction(b) -> np.ndarray:
     return unit_checked(np.cross(_spin_axis(b), Z_AXIS))
 
 
-@dataclass(frozen=True)
+@record
 class AxisMoments:
     """Moments about one steering axis [N*m], steer-left positive, arrays of the grid shape.
 
@@ -188,7 +187,7 @@ def rack_gains(tie_rod_inner, tie_rod_outer, axis_point, axis) -> np.ndarray:
     return u[..., 1] / tie_rod_lever(tie_rod_inner, tie_rod_outer, axis_point, axis)
 
 
-@dataclass(frozen=True)
+@record
 class RackResult:
     """rack_force [N]: steer-left positive (the force the wheels put on the rack in the rack's
     steer-left direction; the steering gear must hold it with the opposite force).
@@ -250,7 +249,7 @@ def steering_wheel_torque(rack_force, rack_travel_per_rev) -> np.ndarray:
 # ---- linearised levers for the transient model -------------------------------------------------
 
 
-@dataclass(frozen=True)
+@record
 class SteerLevers:
     """Steering-axis moment of one side, linear in the drive: M = force_lever F_x + torque_gain T.
 
@@ -330,7 +329,7 @@ def powertrain_roll_angle(reaction, roll_axis, roll_stiffness) -> np.ndarray:
                                                                                  float)
 
 
-@dataclass(frozen=True)
+@record
 class MountEffect:
     """Powertrain roll effect on torque steer. angle [rad]; net_rigid, net_moved, added [N*m]
     (net steering-axis moments L + R, steer-left positive, without and with the roll, and their

@@ -30,9 +30,11 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
-from dataclasses import dataclass, field
+from dataclasses import field
 
 import numpy as np
+
+from shaftcheck.records import record
 
 OPEN_DIFF_STATEMENT = (
     "With an ideal open differential, unequal halfshaft stiffness barely changes the wheel "
@@ -43,7 +45,7 @@ OPEN_DIFF_STATEMENT = (
 _KINDS = ("open", "limited_slip", "locked")
 
 
-@dataclass(frozen=True)
+@record
 class DrivelineModel:
     """Parameters of the two-side torsional model (SI, see module docstring).
 
@@ -184,7 +186,7 @@ def _initial_state(p: DrivelineModel, initial_twist) -> np.ndarray:
     return y0
 
 
-@dataclass(frozen=True)
+@record
 class TransientResult:
     """Time histories [SI] of a transient solve; arrays of the time grid.
 

@@ -24,11 +24,11 @@ from __future__ import annotations
 
 import math
 from collections.abc import Sequence
-from dataclasses import dataclass
 
 import numpy as np
 
 from shaftcheck.methods.arrays import sorted_unique
+from shaftcheck.records import record
 
 #: beta_1 L of the first bending mode of a uniform Euler-Bernoulli beam (Blevins Table 8-1).
 BETA1_L = {
@@ -45,7 +45,7 @@ BETA1_L = {
 ELEMENTS = 24
 
 
-@dataclass(frozen=True)
+@record
 class BeamSpan:
     """A uniform piece of a beam: length [m], bending stiffness EI [N*m^2], mass/length [kg/m]."""
 

@@ -50,12 +50,12 @@ tolerance_out_of_limit_max_pct     0.135     common practice, no source, for the
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from shaftcheck.records import record
 
 MEAN_STRESS_CRITERIA = ("goodman", "gerber", "asme_elliptic")
 
 
-@dataclass(frozen=True)
+@record
 class Criteria:
     stiffness_mismatch_max_pct: float = 5.0
     joint_angle_difference_max_deg: float = 1.0

@@ -49,10 +49,12 @@ design without them and compares).
 
 from __future__ import annotations
 
-from dataclasses import dataclass, fields
+from dataclasses import fields
+
+from shaftcheck.records import record
 
 
-@dataclass(frozen=True)
+@record
 class ModelDefaults:
     """Defaults of the torque-steer and transient models (SI; basis in the module docstring)."""
 

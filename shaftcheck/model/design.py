@@ -7,10 +7,11 @@ its range, is described in ``docs/design-file.md``.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import field
 
 from shaftcheck.model.criteria import Criteria
 from shaftcheck.model.materials import Material
+from shaftcheck.records import record
 
 FORMAT_VERSION = 1
 JOINT_KINDS = ("fixed_ball", "tripod", "plunging_ball", "cardan")
@@ -18,7 +19,7 @@ PLUNGING_KINDS = ("tripod", "plunging_ball")
 DIFFERENTIALS = ("open", "limited_slip", "locked")
 
 
-@dataclass(frozen=True)
+@record
 class Revision:
     """One row of the design's revision history (text as written in the design file)."""
 
@@ -27,7 +28,7 @@ class Revision:
     description: str
 
 
-@dataclass(frozen=True)
+@record
 class Project:
     """Identity of the design: shown on the report; no clock time is read. The release fields
     (document and part number, who prepared, checked and approved it: "" when not given) and
@@ -45,7 +46,7 @@ class Project:
     revisions: tuple[Revision, ...] = ()
 
 
-@dataclass(frozen=True)
+@record
 class Vehicle:
     """loaded_radius [m], front_axle_load [N], tyre_mu [-], max_speed [m/s],
     rack_travel_per_rev [m/rev]; transient inputs: mass [kg], wheel_inertia [kg*m^2],
@@ -67,7 +68,7 @@ class Vehicle:
         return self.max_speed / self.loaded_radius
 
 
-@dataclass(frozen=True)
+@record
 class Mounts:
     """Powertrain roll on its mounts: axis point [m], unit axis, roll stiffness [N*m/rad],
     fixed misalignment rotation vector [rad] (about vehicle x, y, z through the axis point)."""
@@ -78,7 +79,7 @@ class Mounts:
     misalignment: tuple
 
 
-@dataclass(frozen=True)
+@record
 class Powertrain:
     engine_torque: float  # [N*m]
     first_gear_ratio: float
@@ -90,7 +91,7 @@ class Powertrain:
     mounts: Mounts | None = None
 
 
-@dataclass(frozen=True)
+@record
 class Joint:
     """A joint definition: max_angle [rad], plunge limits [m], torsional_stiffness [N*m/rad]
     (inf when not given), efficiency_loss_per_deg [-/deg] or None for the kind's default."""
@@ -108,7 +109,7 @@ class Joint:
         return self.kind in PLUNGING_KINDS
 
 
-@dataclass(frozen=True)
+@record
 class Corner:
     """Design-position hard points of one strut corner [m] (None where a table corner omits
     them), the spindle axis (unit, outboard) and the outboard joint offset [m]."""
@@ -134,7 +135,7 @@ HARD_POINTS = ("lower_arm_front", "lower_arm_rear", "lower_ball_joint", "strut_t
                "tie_rod_inner", "tie_rod_outer", "wheel_centre", "spindle_axis")
 
 
-@dataclass(frozen=True)
+@record
 class Suspension:
     """model "strut" | "table"; travel and rack ranges [m]; left/right corners; for a table
     corner, the parsed table rows (see :mod:`shaftcheck.methods.halfshaft_geometry`)."""
@@ -149,7 +150,7 @@ class Suspension:
     right_table: object | None = None
 
 
-@dataclass(frozen=True)
+@record
 class Intermediate:
     """Intermediate shaft: output_point [m], bearing_offset [m], length [m] or None (to be
     placed), length_range [m], bearing_dynamic_rating [N], segments, material; optional
@@ -166,7 +167,7 @@ class Intermediate:
     joint_pitch_radius: float | None = None
 
 
-@dataclass(frozen=True)
+@record
 class Side:
     name: str  # "left" | "right"
     inboard_joint: Joint
@@ -186,14 +187,14 @@ class Side:
         return tuple(p[i] + L * a[i] for i in range(3))
 
 
-@dataclass(frozen=True)
+@record
 class LoadBin:
     torque_min: float  # [N*m]
     torque_max: float  # [N*m]
     cycles: float
 
 
-@dataclass(frozen=True)
+@record
 class Tolerances:
     """Plus-minus tolerances treated as 3 sigma [m]."""
 
@@ -203,7 +204,7 @@ class Tolerances:
     length: float = 0.0
 
 
-@dataclass(frozen=True)
+@record
 class TorqueSteerInputs:
     """Conditions for the torque-steer study: split-friction pair, roll travel [m], throttle
     rise time [s] (0 = step)."""
@@ -214,7 +215,7 @@ class TorqueSteerInputs:
     throttle_rise_time: float = 0.0
 
 
-@dataclass(frozen=True)
+@record
 class Variant:
     """One [[variants]] entry: its name, the vehicle, powertrain and duty cycle it runs with
     (the base design's where it changes nothing) and what it changes, as "table.key = value"
@@ -227,7 +228,7 @@ class Variant:
     changes: tuple[str, ...] = ()
 
 
-@dataclass(frozen=True)
+@record
 class Design:
     path: str
     sha256: str

@@ -22,10 +22,11 @@ input can make a run take unbounded time or memory.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import field
 
 from shaftcheck.model.criteria import MEAN_STRESS_CRITERIA, Criteria
 from shaftcheck.model.materials import SURFACE_FINISHES
+from shaftcheck.records import record
 
 # --- resource maxima (checked before anything is allocated) -----------------------------------
 #: largest design file read [bytes]
@@ -85,7 +86,7 @@ SLIPS: dict[str, tuple[tuple[float, str], ...]] = {
 }
 
 
-@dataclass(frozen=True)
+@record
 class Key:
     """One key of a design-file table.
 
@@ -110,7 +111,7 @@ class Key:
     max_length: int = 200
 
 
-@dataclass(frozen=True)
+@record
 class TableSpec:
     """One table of the design file: its header, whether it is required, its keys."""
 

@@ -8,13 +8,13 @@ factor.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from shaftcheck.records import record
 
 #: Surface finishes known to the Marin surface factor (Shigley Table 6-2).
 SURFACE_FINISHES = ("ground", "machined", "cold_drawn", "hot_rolled", "as_forged")
 
 
-@dataclass(frozen=True)
+@record
 class Material:
     """An isotropic steel, in SI units.
 

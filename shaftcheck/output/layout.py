@@ -20,10 +20,11 @@ from __future__ import annotations
 
 import textwrap
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass
 
 from rich.console import Console
 from rich.text import Text
+
+from shaftcheck.records import record
 
 #: narrowest width laid out (a narrower console still gets lines of at most its width, wrapped)
 MIN_WIDTH = 20
@@ -31,7 +32,7 @@ MIN_WIDTH = 20
 DETAIL_INDENT = 4
 
 
-@dataclass(frozen=True)
+@record
 class Col:
     """One column: header, alignment ("left" | "right"), ``key`` columns repeat in every block,
     ``gap`` spaces before the column."""

@@ -10,16 +10,16 @@ docs/methods.md (bearing placement, bearing loads and life).
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 import numpy as np
 
 from shaftcheck.methods.arrays import sorted_unique
+from shaftcheck.records import record
 from shaftcheck.studies.result import Check
 from shaftcheck.units import RAD2DEG
 
 
-@dataclass(frozen=True)
+@record
 class PoseDuty:
     """Time shares of suspension poses for bearing life (SI): wheel travel [m] and rack travel
     [m] of each pose and its share of the driving time [-] (shares sum to 1). Build it with
@@ -31,7 +31,7 @@ class PoseDuty:
     basis: str = ""
 
 
-@dataclass(frozen=True)
+@record
 class DriveDuty:
     """Speed-time duty cycle for bearing life (SI): vehicle speed [m/s], shaft torque per side
     [N*m] and share of the driving time [-] of each state (shares sum to 1), with state names.
@@ -140,7 +140,7 @@ def duty_poses(ctx) -> PoseDuty:
     return given if given is not None else default_pose_duty(ctx.design)
 
 
-@dataclass(frozen=True)
+@record
 class BearingLife:
     """Bearing loads and basic rating life over the duty (SI).
 
@@ -198,7 +198,7 @@ class BearingLife:
                 "damage_share": float(w[i, j] / w.sum())}
 
 
-@dataclass(frozen=True)
+@record
 class BearingResult:
     """One intermediate shaft (SI): length [m] (placed or given), range [m], bearing offset [m],
     bearing centre and inboard joint centre (3,) [m], largest left-right angle difference over

@@ -20,8 +20,8 @@ from __future__ import annotations
 
 import hashlib
 import math
-from dataclasses import dataclass
 
+from shaftcheck.records import record
 from shaftcheck.studies.result import Check, jsonable
 
 #: smallest change of a check's value or limit that counts as a move [the check's unit];
@@ -33,7 +33,7 @@ STATUSES = ("newly not met", "new, not met", "still not met", "newly met", "new,
             "still met", "removed")
 
 
-@dataclass(frozen=True)
+@record
 class Identity:
     """One side of a comparison: the design file and what its project says."""
 
@@ -51,7 +51,7 @@ class Identity:
                 "checks": self.checks}
 
 
-@dataclass(frozen=True)
+@record
 class InputChange:
     """One input that differs: key path, old and new value in the file's unit (None when the
     key is absent from that revision), unit as the design-file table gives it ("" for none)."""
@@ -73,7 +73,7 @@ class InputChange:
                          "change": self.change})
 
 
-@dataclass(frozen=True)
+@record
 class CheckChange:
     """One check whose verdict, value or limit moved (``old`` / ``new`` None when the check
     exists in one revision only). Values and limits are in the check's unit."""
@@ -133,7 +133,7 @@ class CheckChange:
         })
 
 
-@dataclass(frozen=True)
+@record
 class Changes:
     """Everything that differs from ``old`` to ``new`` (see module docstring)."""
 

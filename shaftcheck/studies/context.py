@@ -18,13 +18,13 @@ can hold the "one solve per side" promise.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
 from functools import cached_property
 
 import numpy as np
 
 from shaftcheck.methods.arrays import sorted_unique
 from shaftcheck.model.defaults import MODEL_DEFAULTS
+from shaftcheck.records import record
 
 SIDES = ("left", "right")
 
@@ -56,7 +56,7 @@ def strut_hard_points(design, side: str):
                            outboard_joint_offset=c.outboard_joint_offset)
 
 
-@dataclass(frozen=True)
+@record
 class DesignGeometry:
     """Joint geometry of one side at the design position (SI).
 

@@ -21,10 +21,10 @@ Methods: docs/methods.md §2.4. Counting: ASTM E1049-85 rainflow (key ``astm_e10
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 import numpy as np
 
+from shaftcheck.records import record
 from shaftcheck.units import RAD2DEG
 
 SIDES = ("left", "right")
@@ -37,7 +37,7 @@ EXPOSURE_FRACTIONS = (0.25, 0.5, 0.75, 0.9)
 HISTOGRAM_BINS = 20
 
 
-@dataclass(frozen=True)
+@record
 class SideCount:
     """Counting of one side: reversals, cycles (half cycles 0.5), the largest range and the
     lowest and highest torque of the history [N*m]."""
@@ -49,7 +49,7 @@ class SideCount:
     torque_max: float
 
 
-@dataclass(frozen=True)
+@record
 class SpectrumResult:
     """The counted duty cycle of a history (SI; torques [N*m], time [s], distances [m]).
 
@@ -91,7 +91,7 @@ class SpectrumResult:
         }
 
 
-@dataclass(frozen=True)
+@record
 class JointExposure:
     """Time-weighted joint angle of one joint over the history (angles [rad]).
 
@@ -116,7 +116,7 @@ class JointExposure:
                                       "share": s} for f, a, s in self.shares]}
 
 
-@dataclass(frozen=True)
+@record
 class PoseTime:
     """Share of the recorded time in each travel x rack cell of one side [-] (sums to 1):
     cell centres travel (nt,) and rack (nr,) [m], shares (nt, nr); outside: the share of time
@@ -128,7 +128,7 @@ class PoseTime:
     outside: float
 
 
-@dataclass(frozen=True)
+@record
 class DutyCycleResult:
     """The measured duty cycle of a design: counting, pose-time tables and joint exposure
     (None where the history has no travel columns), notices."""

@@ -9,10 +9,9 @@ it illustrates read the same grid. Models: docs/methods.md (joint geometry, Card
 
 from __future__ import annotations
 
-from dataclasses import dataclass
-
 import numpy as np
 
+from shaftcheck.records import record
 from shaftcheck.studies.context import SIDES
 from shaftcheck.studies.result import Check
 from shaftcheck.units import RAD2DEG
@@ -21,7 +20,7 @@ from shaftcheck.units import RAD2DEG
 GEOMETRY_REFERENCE = "halfshaft_geometry"
 
 
-@dataclass(frozen=True)
+@record
 class SideSweep:
     """One halfshaft over the grid. Arrays (nt, nr): angles [rad], plunge and length [m].
 
@@ -55,7 +54,7 @@ class SideSweep:
                 "plunge_limits_mm": [x * 1e3 for x in self.plunge_limits]}
 
 
-@dataclass(frozen=True)
+@record
 class CardanAngle:
     """A Cardan joint at design: working angle [rad], peak-to-peak speed fluctuation [-] and
     secondary couples per unit torque on the input and output shafts [N*m per N*m]."""
@@ -68,7 +67,7 @@ class CardanAngle:
     couple_output_per_nm: float
 
 
-@dataclass(frozen=True)
+@record
 class GeometryResult:
     """Both sides over travel (nt,) x rack (nr,) [m]; the largest left-right angle differences
     over travel at rack centred [rad] and the travel where they occur [m]."""

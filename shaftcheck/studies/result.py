@@ -7,11 +7,12 @@ Values in checks are in the trade units named by ``unit`` (they are what the eng
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 from typing import Any, Protocol
 
+from shaftcheck.records import record
 
-@dataclass(frozen=True)
+
+@record
 class Check:
     """One acceptance check.
 
@@ -81,7 +82,7 @@ class StudyResult(Protocol):
     def to_dict(self) -> dict: ...
 
 
-@dataclass(frozen=True)
+@record
 class Result:
     """Everything computed for a design: typed study results (SI), checks and notices.
 

@@ -10,17 +10,17 @@ the mean of the two sides; joint angles between 3-D unit vectors.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 import numpy as np
 
 from shaftcheck.errors import ShaftcheckError
+from shaftcheck.records import record
 from shaftcheck.studies.context import SIDES
 from shaftcheck.studies.result import Check
 from shaftcheck.units import NMRAD_TO_NMDEG, RAD2DEG
 
 
-@dataclass(frozen=True)
+@record
 class SegmentStress:
     """Shear at the design torque in one segment [Pa]: nominal (no concentration), the
     concentration factor K_ts [-] and the peak."""
@@ -34,7 +34,7 @@ class SegmentStress:
     peak: float
 
 
-@dataclass(frozen=True)
+@record
 class SideSummary:
     """One side at design (SI): stiffness of the whole side and of the shafts alone [N*m/rad],
     compliance elements, design torque [N*m], joint angles [rad], joint-centre distance [m],
@@ -81,7 +81,7 @@ class SideSummary:
         }
 
 
-@dataclass(frozen=True)
+@record
 class SidesResult:
     """Both sides at design, the mismatch [%] and, when the mismatch is not met, the sizing
     proposals per side (side -> Proposals, or the reason there is none)."""

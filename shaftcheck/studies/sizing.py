@@ -30,12 +30,13 @@ Ranked by segment mass. SI inside: [m], [N*m/rad], [Pa], [kg].
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field, replace
+from dataclasses import field, replace
 
 from shaftcheck.errors import ShaftcheckError
 from shaftcheck.methods.loads import load_cases
 from shaftcheck.methods.sections import Segment, nominal_shear, polar_moment
 from shaftcheck.methods.side_stiffness import mismatch_pct, side_stiffness
+from shaftcheck.records import record
 
 NMRAD_TO_NMDEG = math.pi / 180.0
 #: smallest bore / outer diameter of a proposed tube (wall <= 25 % of the outer diameter).
@@ -54,7 +55,7 @@ BAR_ORIGIN = ("preferred diameters of ISO 3 series R40, 10 to 100 mm (from memor
 KINDS = ("solid", "tube")
 
 
-@dataclass(frozen=True)
+@record
 class Proposal:
     """One section for the resized segment and what it gives.
 
@@ -105,7 +106,7 @@ class Proposal:
                 "passes_all_checks": self.passes}
 
 
-@dataclass(frozen=True)
+@record
 class Rejected:
     """A section not proposed and why."""
 
@@ -117,7 +118,7 @@ class Rejected:
         return {"kind": self.kind, "section": self.section, "reason": self.reason}
 
 
-@dataclass(frozen=True)
+@record
 class Proposals:
     """Every proposal for one side's segment. ``free`` sorted by mass; ``standard`` holds every
     standard size of the kind, sorted by mass (those within the mismatch limit are offered)."""

@@ -23,11 +23,11 @@ SI inside: [m], [N*m/rad], [kg].
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 from shaftcheck.errors import ShaftcheckError
 from shaftcheck.methods.sections import Segment
 from shaftcheck.methods.side_stiffness import mismatch_pct, side_stiffness
+from shaftcheck.records import record
 from shaftcheck.studies.sizing import (
     BAR_DIAMETERS_MM,
     DEFAULT_WALL,
@@ -61,7 +61,7 @@ STANDARD_NEIGHBOURS = 3
 STANDARD_TRIES = 6
 
 
-@dataclass(frozen=True)
+@record
 class PairSide:
     """One side of a pair: segment index and its new section, mass [kg], whole-side stiffness
     [N*m/rad], and whether it is a standard size."""
@@ -83,7 +83,7 @@ class PairSide:
                 "standard_size": self.standard}
 
 
-@dataclass(frozen=True)
+@record
 class PairOption:
     """Both sides resized: total mass [kg], mismatch [%], governing margin of every strength
     check of both sides (fraction, as ``Check.margin``), its check id and the failed ids."""
@@ -112,7 +112,7 @@ class PairOption:
                 "failed_checks": list(self.failed), "passes_all_checks": self.passes}
 
 
-@dataclass(frozen=True)
+@record
 class PairProposals:
     """The two-sided result: the free optimum (zero mismatch), the nearest standard pair, the
     scan (k [N*m/rad], total mass [kg], governing margin) and a note on how it ended."""

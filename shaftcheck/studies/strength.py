@@ -15,8 +15,8 @@ from __future__ import annotations
 import dataclasses
 import math
 from collections.abc import Mapping
-from dataclasses import dataclass
 
+from shaftcheck.records import record
 from shaftcheck.studies.result import Check, jsonable
 
 SIDES = ("left", "right")
@@ -80,7 +80,7 @@ def _first_ref(refs) -> str:
 
 # --- result records ----------------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record
 class SnCurve:
     """The torsional S-N line of a shaft's governing damage location (SI).
 
@@ -94,7 +94,7 @@ class SnCurve:
     label: str
 
 
-@dataclass(frozen=True)
+@record
 class MinerRow:
     """One duty-cycle bin at the governing damage location (SI): torques [N*m], cycles, shear
     amplitude and mean with K_fs [Pa], equivalent fully reversed amplitude [Pa], life [cycles]
@@ -112,7 +112,7 @@ class MinerRow:
     status: str
 
 
-@dataclass(frozen=True)
+@record
 class HistoryDamage:
     """Miner damage of one shaft from every rainflow cycle of a measured torque history (SI).
 
@@ -142,7 +142,7 @@ class HistoryDamage:
                 "location": self.location.to_dict()}
 
 
-@dataclass(frozen=True)
+@record
 class ShaftEntry:
     """The strength of one shaft: its assessment (SI), the high-cycle fatigue result, the S-N
     curve and Miner rows for the report, and the shaft's notices. With a measured torque
@@ -164,7 +164,7 @@ class ShaftEntry:
         return f"{self.side} {self.shaft}"
 
 
-@dataclass(frozen=True)
+@record
 class StrengthResult:
     """Strength of every shaft of a design (SI) and what the report shows about it.
 

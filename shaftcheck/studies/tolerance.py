@@ -20,11 +20,11 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable, Iterator
-from dataclasses import dataclass
 
 import numpy as np
 
 from shaftcheck.errors import DesignError, ShaftcheckError
+from shaftcheck.records import record
 from shaftcheck.studies.result import Check
 
 RAD2DEG = 180.0 / math.pi
@@ -72,7 +72,7 @@ def check_samples(n: int, seed: int) -> None:
 
 
 # --- typed result ---------------------------------------------------------------------------------
-@dataclass(frozen=True)
+@record
 class InputShare:
     """First-order variance share (0 ... 1) of one sampled dimension in one output.
 
@@ -85,7 +85,7 @@ class InputShare:
     share: float
 
 
-@dataclass(frozen=True)
+@record
 class QuantitySpread:
     """Spread of one output over the samples, in the unit named by ``unit``.
 
@@ -148,7 +148,7 @@ class QuantitySpread:
                 "first_order_sum": self.first_order_sum, "share_noise": self.share_noise}
 
 
-@dataclass(frozen=True)
+@record
 class ToleranceResult:
     """The tolerance study of one design: ``samples`` drawn with ``seed``; ``tolerances``: key ->
     plus-minus tolerance [m]; ``out_of_limit_max_pct``: the criterion [%]; one

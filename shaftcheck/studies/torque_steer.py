@@ -28,12 +28,12 @@ from __future__ import annotations
 
 import io
 import math
-from dataclasses import dataclass
 
 import numpy as np
 
 from shaftcheck.errors import DesignError
 from shaftcheck.model.defaults import MODEL_DEFAULTS
+from shaftcheck.records import record
 from shaftcheck.studies.context import SIDES
 from shaftcheck.studies.result import Check
 from shaftcheck.units import RAD2DEG
@@ -65,7 +65,7 @@ STUDY_REFERENCES = ("cv_joint_efficiency_estimate",)
 
 # --- typed result (SI) -----------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record
 class SideMoments:
     """Base-model moments of one side about its steering axis at design [N*m] (steer-left
     positive): total = tyre_force + joint_moment + shaft_force = drive_force + joint_angle;
@@ -86,7 +86,7 @@ class SideMoments:
                 "wheel_torque_nm": self.wheel_torque}
 
 
-@dataclass(frozen=True)
+@record
 class Mechanism:
     """One line of the budget at design: moments about the left and right axes [N*m] and the
     steering-wheel torque [N*m] it causes; roll_angle [rad] of the powertrain (mounts only)."""
@@ -117,7 +117,7 @@ class Mechanism:
         return out
 
 
-@dataclass(frozen=True)
+@record
 class Curve:
     """Net moment and steering-wheel torque [N*m] at design torque over one variable x [m]:
     wheel travel of both wheels (heave), roll offset r (roll) or rack travel (steer)."""
@@ -134,7 +134,7 @@ class Curve:
                 "steering_wheel_torque_nm": self.steering_wheel_torque}
 
 
-@dataclass(frozen=True)
+@record
 class ThrottleMap:
     """Steering-wheel torque [N*m] over drive torque per side (n_torque,) [N*m] x heave travel
     (n_travel,) [m] and x roll offset (n_roll,) [m]."""
@@ -166,7 +166,7 @@ class ThrottleMap:
 _AXIS_NAMES = {"heave": "travel", "roll": "roll (left up)", "steer": "rack"}
 
 
-@dataclass(frozen=True)
+@record
 class WorstCase:
     """Largest |steering-wheel torque| [N*m] (signed) of one condition at design torque, where
     it occurs (x [m] on the condition's variable) and the mechanism with the largest net
@@ -200,7 +200,7 @@ class WorstCase:
                 "dominant_mechanism": LABELS[self.dominant]}
 
 
-@dataclass(frozen=True)
+@record
 class SplitMuCase:
     """Split-friction launch with the low-friction wheel on ``low_side``: wheel torques [N*m],
     net moment and steering-wheel torque [N*m] at the design position (base model)."""
@@ -217,7 +217,7 @@ class SplitMuCase:
                 "steering_wheel_torque_nm": self.steering_wheel_torque}
 
 
-@dataclass(frozen=True)
+@record
 class SplitMu:
     """Quasi-static split-friction launch (``split_mu_bias``): friction pair [-], torque bias
     ratio [-] (inf for locked) and one case per low-friction side."""
@@ -239,7 +239,7 @@ class SplitMu:
         return out
 
 
-@dataclass(frozen=True)
+@record
 class TorqueSteerResult:
     """Everything the torque-steer pages and tables show (SI; N*m, m, N, rad).
 
@@ -301,7 +301,7 @@ class TorqueSteerResult:
 
 # --- the grid of one side --------------------------------------------------------------------
 
-@dataclass(frozen=True)
+@record
 class SideGrid:
     """One side over a travel x rack grid (SI): the arguments of
     :func:`~shaftcheck.methods.torque_steer.steering_axis_moments` (``vectors``), its moments per

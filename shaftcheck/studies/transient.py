@@ -15,11 +15,11 @@ the steady model's at the design position, linearised (``two_side_torsional_mode
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
 
 import numpy as np
 
 from shaftcheck.model.defaults import BASIS, MODEL_DEFAULTS
+from shaftcheck.records import record
 from shaftcheck.studies.context import SIDES
 
 #: a rigid side (no finite stiffness) is modelled with this stiffness [N*m/rad] (project choice:
@@ -29,7 +29,7 @@ RIGID_STIFFNESS = 1e9
 JSON_STRIDE = 5
 
 
-@dataclass(frozen=True)
+@record
 class TransientStudy:
     """The transient after a throttle step (SI: s, N*m, N).
 

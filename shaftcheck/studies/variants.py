@@ -20,14 +20,14 @@ from __future__ import annotations
 
 import dataclasses
 import math
-from dataclasses import dataclass
 
 from shaftcheck.model.limits import BASE_VARIANT
+from shaftcheck.records import record
 from shaftcheck.studies.context import GEOMETRY_RACK_POINTS, GEOMETRY_TRAVEL_POINTS, Context
 from shaftcheck.studies.result import Check, Result
 
 
-@dataclass(frozen=True)
+@record
 class CaseResult:
     """One case of the vehicle line: its name (``"base"`` for the base design), what it changes
     ("table.key = value" in the file's units), its verdict, its checks (trade units, as in
@@ -53,7 +53,7 @@ class CaseResult:
                 "checks": [c.to_dict() for c in self.checks]}
 
 
-@dataclass(frozen=True)
+@record
 class VariantsResult:
     """Every case (base design first, then the variants in file order) and the name of the
     governing case (the one holding the smallest margin of all)."""
