@@ -27,9 +27,10 @@ __all__ = ["record"]
 
 
 def _setattr(self, name, value):
-    if name in self.__dict__ or name not in type(self).__dataclass_fields__:
+    d = self.__dict__  # fields are plain instance attributes (no slots, no descriptors)
+    if name in d or name not in self.__dataclass_fields__:
         raise FrozenInstanceError(f"cannot assign to field {name!r}")
-    object.__setattr__(self, name, value)
+    d[name] = value
 
 
 def _delattr(self, name):

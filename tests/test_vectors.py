@@ -5,7 +5,7 @@
   ``numpy.cross``, ``numpy.sum(a * b, axis=-1)``, ``numpy.linalg.norm`` and Rodrigues' formula
   written with them.
 * The strut corner solve (methods/strut_corner.py) stops each pose once its wheel-centre height
-  is within 1e-12 m; it must agree with the plain Newton loop over the whole grid (central
+  is within 1e-12 m; it must agree with a plain Newton loop over the whole grid (central
   difference, every pose iterated until all have converged) to within that tolerance: 2e-12 m
   on points (both solutions lie within 1e-12 m of the same root in height), 2e-12 on unit
   vectors and 1e-11 rad on the arm angle (height changes by about 0.3 m per rad of arm swing).

@@ -7,7 +7,6 @@ command finds them from any working folder. Values are in trade units with a sou
 from __future__ import annotations
 
 from functools import lru_cache
-from importlib import resources
 from pathlib import Path
 
 from shaftcheck.errors import DesignError
@@ -20,14 +19,28 @@ LIBRARY_PACKAGE = "shaftcheck.datafiles"
 def _library_root():
     """The folder of the data files: the installed package ``shaftcheck.datafiles``, or, when
     shaftcheck runs from a source checkout (e.g. tests started in the repository), the
-    repository's ``materials/`` folder beside the package."""
+    repository's ``materials/`` folder beside the package.
+
+    The package's folder comes from its import spec (a plain directory in a normal or editable
+    install); only a package that is not a directory (a zip) is read through
+    :mod:`importlib.resources`, whose import costs several milliseconds of every command."""
+    from importlib.util import find_spec
+
     try:
-        return resources.files(LIBRARY_PACKAGE)
+        spec = find_spec(LIBRARY_PACKAGE)
     except ModuleNotFoundError:
-        source = Path(__file__).resolve().parents[2] / "materials"  # repo/materials
-        if not source.is_dir():
-            raise
-        return source
+        spec = None
+    folders = [Path(p) for p in (spec.submodule_search_locations or ())] if spec else []
+    if folders and folders[0].is_dir():
+        return folders[0]
+    if spec is not None:
+        from importlib import resources
+
+        return resources.files(LIBRARY_PACKAGE)
+    source = Path(__file__).resolve().parents[2] / "materials"  # repo/materials
+    if not source.is_dir():
+        raise ModuleNotFoundError(f"no module named {LIBRARY_PACKAGE!r}")
+    return source
 
 
 def _library_files(suffix: str):

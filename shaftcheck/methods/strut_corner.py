@@ -20,9 +20,9 @@ Solution (vectorised over the grid, no per-pose Python loop):
 2. The tie-rod closure |L + Rot(k, psi) R0 (T_o0 - L0) - T_i|^2 = l^2 reads
    A cos psi + B sin psi = C: closed form, psi = atan2(B, A) +/- arccos(C / hypot(A, B)); the branch
    is the one of the design pose. |C| > hypot(A, B) means the tie rod cannot close.
-3. The wheel-centre height z_W(phi) = z_W0 + travel is solved for phi by a vectorised Newton
-   iteration (forward-difference slope), one loop over iterations only; poses that have
-   converged leave the iteration.
+3. The wheel-centre height z_W(phi) = z_W0 + travel is solved for phi by a vectorised secant
+   iteration (Newton's method with the slope through the last two iterates), one loop over
+   iterations only; poses that have converged leave the iteration.
 
 Poses the linkage cannot reach raise :class:`shaftcheck.errors.UnreachablePoseError` for the first
 bad pose (travel-major order), never a silent NaN.
@@ -41,7 +41,7 @@ from shaftcheck.records import record
 # ``unit`` and ``rotate`` are still imported from here by a module that has not moved to
 # shaftcheck.methods.vectors yet; import them from there.
 
-#: Newton tolerance on the wheel-centre height [m].
+#: tolerance of the height iteration on the wheel-centre height [m].
 HEIGHT_TOLERANCE = 1e-12
 #: Largest arm swing accepted from design [rad]; beyond it the lower arm is "past its range".
 MAX_ARM_SWING = np.radians(75.0)
@@ -268,18 +268,22 @@ def _height(hp, frame, phi, rack):
 def _newton(hp, frame, target, rack):
     """Arm angles phi with z_W(phi) = target over the grid; returns phi, psi, margin, ok flags.
 
-    Newton's method on each pose with a forward-difference slope (step _SLOPE_STEP); a pose
-    leaves the iteration once its height is within HEIGHT_TOLERANCE, so late iterations only
-    evaluate the few poses still moving.
+    Secant iteration on each pose: Newton's method with the slope taken through the last two
+    iterates, one height evaluation per step (order about 1.6, against 2 evaluations per step
+    for a difference-quotient Newton step). The first step, and any step whose secant slope is
+    not finite or has the wrong sign, uses the design pose's forward-difference slope (step
+    _SLOPE_STEP). A pose leaves the iteration once its height is within HEIGHT_TOLERANCE, so
+    late iterations only evaluate the few poses still moving.
     """
     h = _SLOPE_STEP
     z0 = _height(hp, frame, np.zeros(1), np.zeros(1))[0]
-    slope0 = (_height(hp, frame, np.full(1, h), np.zeros(1))[0] - z0) / h
-    phi = (target - hp.wheel_centre[2]) / slope0[0]
+    slope0 = float((_height(hp, frame, np.full(1, h), np.zeros(1))[0][0] - z0[0]) / h)
+    phi = (target - hp.wheel_centre[2]) / slope0
     phi = np.clip(phi, -0.9 * MAX_ARM_SWING, 0.9 * MAX_ARM_SWING).ravel()
     goal = np.asarray(target, dtype=float).ravel()
     rack = np.broadcast_to(rack, np.shape(target)).ravel()
     z, psi, margin = np.empty_like(phi), np.empty_like(phi), np.empty_like(phi)
+    last_phi, last_z = np.full_like(phi, np.nan), np.full_like(phi, np.nan)
     todo = np.arange(phi.size)
     for _ in range(_MAX_ITERATIONS):
         z[todo], psi[todo], margin[todo] = _height(hp, frame, phi[todo], rack[todo])
@@ -288,10 +292,12 @@ def _newton(hp, frame, target, rack):
         todo, res = todo[moving], res[moving]
         if todo.size == 0:
             break
-        slope = (_height(hp, frame, phi[todo] + h, rack[todo])[0] - z[todo]) / h
-        bad_slope = np.sign(slope) != np.sign(slope0[0])
-        step = np.where(bad_slope, 0.0, -res / np.where(bad_slope, 1.0, slope))
-        phi[todo] = np.clip(phi[todo] + np.clip(step, -0.2, 0.2), -MAX_ARM_SWING, MAX_ARM_SWING)
+        with np.errstate(invalid="ignore", divide="ignore"):
+            slope = (z[todo] - last_z[todo]) / (phi[todo] - last_phi[todo])
+        slope = np.where(np.isfinite(slope) & (np.sign(slope) == np.sign(slope0)), slope, slope0)
+        last_phi[todo], last_z[todo] = phi[todo], z[todo]
+        phi[todo] = np.clip(phi[todo] + np.clip(-res / slope, -0.2, 0.2),
+                            -MAX_ARM_SWING, MAX_ARM_SWING)
     else:  # out of iterations: the last step moved these poses; evaluate them where they are
         z[todo], psi[todo], margin[todo] = _height(hp, frame, phi[todo], rack[todo])
     shape = np.shape(target)
@@ -312,7 +318,8 @@ def _first_bad(side, travel, rack, margin, converged, phi):
         reason = (f"the lower arm would swing past {np.degrees(MAX_ARM_SWING):.0f} deg from design"
                   " to reach this wheel travel")
     elif not converged[i, j]:
-        reason = "the lower arm cannot reach this wheel-centre height (Newton did not converge)"
+        reason = ("the lower arm cannot reach this wheel-centre height (the height iteration "
+                  "did not converge)")
     else:
         reason = "the tie rod cannot close (tie-rod length cannot be kept at this rack position)"
     raise UnreachablePoseError(side, travel[i] * 1e3, rack[j] * 1e3, reason)
