@@ -148,17 +148,45 @@ def test_cardan_joint_is_flagged_above_its_working_angle(tmp_path):
 
 
 def test_one_corner_solve_per_side_for_a_whole_evaluation():
-    # the context solves each corner once on the union of every study's grid (issue: work
-    # repeated); a second evaluate on the same context solves nothing more
+    # the context solves each corner once at the union of every study's grid (the measured
+    # history's cells of the line example included); a second evaluate solves nothing more
     from shaftcheck.studies.context import Context
 
-    for path in (TUBULAR, INTERMEDIATE):
+    for path in (TUBULAR, INTERMEDIATE, TUBULAR.with_name("wren_line.toml")):
         design = load_design(path)
         ctx = Context(design)
         evaluate(design, ctx=ctx)
         assert ctx.corner_solves == 2
         evaluate(design, ctx=ctx)
         assert ctx.corner_solves == 2
+
+
+def test_union_poses_are_each_grid_pose_once_and_grids_are_gathered_exactly():
+    # every pose of every study grid is one union pair; the union holds nothing else; the
+    # gathered grid equals a direct solve of that grid (same per-pose arithmetic, same bits)
+    from shaftcheck.methods.halfshaft_geometry import solve_strut
+    from shaftcheck.studies.context import Context, strut_hard_points
+    from shaftcheck.studies.duty_cycle import bearing_pose_duty
+
+    design = load_design(TUBULAR.with_name("wren_line.toml"))
+    ctx = Context(design)
+    ctx.bearing_pose_duty = bearing_pose_duty(design, ctx.pose_time)
+    t, r = ctx._union
+    pairs = set(zip(t.tolist(), r.tolist(), strict=True))
+    assert len(pairs) == t.size  # each pair once
+    wanted = {(a, b) for tg, rg in ctx._grids for a in tg.tolist() for b in rg.tolist()}
+    assert pairs == wanted
+    assert list(zip(t, r, strict=True)) == sorted(pairs)  # travel-major
+    for tg, rg in ctx._grids:
+        got = ctx.poses("left", tg, rg)
+        ref = solve_strut(strut_hard_points(design, "left"), tg, rg, "left")
+        for name in ("wheel_centre", "spindle_axis", "tie_rod_outer", "arm_angle"):
+            assert np.array_equal(getattr(got, name), getattr(ref, name)), name
+    assert ctx.corner_solves == 1
+    # a grid with a pose outside the union is solved on its own, once
+    ctx.poses("left", [0.001234], [0.0])
+    ctx.poses("left", [0.001234], [0.0])
+    assert ctx.corner_solves == 2
 
 
 def test_no_transient_unless_asked(tubular):

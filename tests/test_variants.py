@@ -138,25 +138,26 @@ def test_a_design_whose_one_variant_fails_fails_on_that_variant_only(tmp_path):
 
 
 def test_geometry_is_solved_once_for_every_variant(monkeypatch):
-    """The line with three variants makes exactly the corner solves of its base design alone
-    (one per side on the union grid, and one per other grid a study asks for)."""
+    """The line with three variants makes exactly the corner solves of its base design alone:
+    one per side, at the union of every study's grid (the measured history's cells included)."""
     import dataclasses
 
     from shaftcheck.methods import halfshaft_geometry
 
     calls = []
-    real = halfshaft_geometry.solve_strut
+    for name in ("solve_strut", "solve_strut_points"):
+        real = getattr(halfshaft_geometry, name)
 
-    def counting(*args, **kwargs):
-        calls.append(args[-1])
-        return real(*args, **kwargs)
+        def counting(*args, _real=real, **kwargs):
+            calls.append(args[-1])
+            return _real(*args, **kwargs)
 
-    monkeypatch.setattr(halfshaft_geometry, "solve_strut", counting)
+        monkeypatch.setattr(halfshaft_geometry, name, counting)
     design = load_design(LINE)
     assert len(design.variants) == 3
     evaluate(dataclasses.replace(design, variants=()))
     alone = sorted(calls)
-    assert alone.count("left") == alone.count("right") >= 1
+    assert alone == ["left", "right"]
     calls.clear()
     ctx = Context(design)
     result = evaluate_variants(design, ctx=ctx)

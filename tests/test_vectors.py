@@ -81,21 +81,21 @@ def test_corner_solve_matches_the_plain_newton_loop(path):
     from shaftcheck.studies.context import Context, strut_hard_points
 
     design = load_design(path)
-    travel, rack = Context(design)._union  # the grid `check` solves
+    travel, rack = Context(design)._union  # the poses `check` solves, as (travel, rack) pairs
     for side in ("left", "right"):
         hp = strut_hard_points(design, side)
-        got = sc.solve_strut(hp, travel, rack, side)
+        got = sc.solve_strut_points(hp, travel, rack, side)
         frame = sc._frame(hp)
-        target = hp.wheel_centre[2] + travel[:, None] + 0.0 * rack[None, :]
-        phi, psi = _plain_newton(hp, frame, target, np.broadcast_to(rack, target.shape))
-        ref = sc._poses(hp, frame, travel, rack, phi, psi)
+        target = hp.wheel_centre[2] + travel
+        phi, psi = _plain_newton(hp, frame, target, rack)
+        ref = sc._pose_fields(hp, frame, rack, phi, psi)
         assert np.max(np.abs(got.wheel_centre[..., 2] - target)) < sc.HEIGHT_TOLERANCE
         for name in ("wheel_centre", "outboard_joint_centre", "lower_ball_joint",
                      "tie_rod_outer"):
-            assert np.max(np.abs(getattr(got, name) - getattr(ref, name))) < 2e-12, name
+            assert np.max(np.abs(getattr(got, name) - ref[name])) < 2e-12, name
         for name in ("spindle_axis", "steering_axis"):
-            assert np.max(np.abs(getattr(got, name) - getattr(ref, name))) < 2e-12, name
-        assert np.max(np.abs(got.arm_angle - ref.arm_angle)) < 1e-11
+            assert np.max(np.abs(getattr(got, name) - ref[name])) < 2e-12, name
+        assert np.max(np.abs(got.arm_angle - ref["arm_angle"])) < 1e-11
 
 
 def test_sorted_unique_is_numpys_unique():

@@ -19,16 +19,18 @@ import numpy as np
 
 from shaftcheck.methods.strut_corner import (  # noqa: F401  (re-exported API)
     CornerPoses,
+    PosePoints,
     StrutHardPoints,
     align,
     solve_strut,
+    solve_strut_points,
     solve_strut_pose_scalar,
 )
 from shaftcheck.methods.vectors import rotate, unit  # noqa: F401  (re-exported API)
 
 __all__ = [
-    "CornerPoses", "StrutHardPoints", "JointGeometry", "solve_strut",
-    "solve_strut_pose_scalar", "joint_geometry", "halfshaft_sweep",
+    "CornerPoses", "PosePoints", "StrutHardPoints", "JointGeometry", "solve_strut",
+    "solve_strut_points", "solve_strut_pose_scalar", "joint_geometry", "halfshaft_sweep",
     "angle_between", "rotate", "unit",
 ]
 

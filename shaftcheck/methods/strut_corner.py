@@ -181,6 +181,37 @@ class CornerPoses:
 
 
 @record
+class PosePoints:
+    """Poses of one corner at paired points: pose k is at travel[k], rack[k] [m] (n,); every
+    point array has shape (n, 3) [m]. Fields as :class:`CornerPoses`."""
+
+    travel: np.ndarray
+    rack: np.ndarray
+    wheel_centre: np.ndarray
+    spindle_axis: np.ndarray
+    outboard_joint_centre: np.ndarray
+    lower_ball_joint: np.ndarray | None = None
+    steering_axis: np.ndarray | None = None
+    tie_rod_outer: np.ndarray | None = None
+    tie_rod_inner: np.ndarray | None = None
+    arm_angle: np.ndarray | None = field(default=None, repr=False)
+
+    def grid(self, travel, rack, index) -> CornerPoses:
+        """CornerPoses of the grid travel (nt,) x rack (nr,) [m] whose pose (i, j) is point
+        ``index[i, j]`` (the caller matches the points to the grid)."""
+        index = np.asarray(index, dtype=int)
+
+        def sub(a):
+            return None if a is None else a[index]
+
+        return CornerPoses(np.asarray(travel, float), np.asarray(rack, float),
+                           sub(self.wheel_centre), sub(self.spindle_axis),
+                           sub(self.outboard_joint_centre), sub(self.lower_ball_joint),
+                           sub(self.steering_axis), sub(self.tie_rod_outer),
+                           sub(self.tie_rod_inner), sub(self.arm_angle))
+
+
+@record
 class _Frame:
     """Constant geometry of the strut solve, derived from the hard points (all [m] or unit)."""
 
@@ -307,22 +338,33 @@ def _newton(hp, frame, target, rack):
 
 
 def _first_bad(side, travel, rack, margin, converged, phi):
-    """Raise UnreachablePoseError for the first bad pose in travel-major order, if any."""
+    """Raise UnreachablePoseError for the first bad pose, if any. travel, rack [m]: the pose
+    coordinates, shaped like the other arrays (a grid's fields, or points); first = first in
+    C order, i.e. travel-major for a grid and for travel-major points."""
     tie_bad = margin < 0
     arm_bad = np.abs(phi) >= MAX_ARM_SWING - 1e-12
-    bad = tie_bad | arm_bad | ~converged
+    bad = (tie_bad | arm_bad | ~converged).ravel()
     if not np.any(bad):
         return
-    i, j = np.argwhere(bad)[0]
-    if arm_bad[i, j]:
+    k = int(np.flatnonzero(bad)[0])
+    if arm_bad.ravel()[k]:
         reason = (f"the lower arm would swing past {np.degrees(MAX_ARM_SWING):.0f} deg from design"
                   " to reach this wheel travel")
-    elif not converged[i, j]:
+    elif not converged.ravel()[k]:
         reason = ("the lower arm cannot reach this wheel-centre height (the height iteration "
                   "did not converge)")
     else:
         reason = "the tie rod cannot close (tie-rod length cannot be kept at this rack position)"
-    raise UnreachablePoseError(side, travel[i] * 1e3, rack[j] * 1e3, reason)
+    t, r = (np.broadcast_to(a, np.shape(margin)).ravel() for a in (travel, rack))
+    raise UnreachablePoseError(side, t[k] * 1e3, r[k] * 1e3, reason)
+
+
+def _solve_fields(hp: StrutHardPoints, travel, rack, side: str):
+    """(frame, phi, psi) of the poses at travel, rack [m] (arrays of one shape, any)."""
+    frame = _frame(hp)
+    phi, psi, margin, converged = _newton(hp, frame, hp.wheel_centre[2] + travel, rack)
+    _first_bad(side, travel, rack, margin, converged, phi)
+    return frame, phi, psi
 
 
 def solve_strut(hp: StrutHardPoints, travel, rack, side: str = "left") -> CornerPoses:
@@ -343,26 +385,43 @@ def solve_strut(hp: StrutHardPoints, travel, rack, side: str = "left") -> Corner
     rack = np.atleast_1d(np.asarray(rack, dtype=float))
     if travel.ndim != 1 or rack.ndim != 1:
         raise ValueError("travel and rack must be 1-D arrays")
-    frame = _frame(hp)
-    target = hp.wheel_centre[2] + travel[:, None] + 0.0 * rack[None, :]
-    rack_grid = np.broadcast_to(rack[None, :], target.shape)
-    phi, psi, margin, converged = _newton(hp, frame, target, rack_grid)
-    _first_bad(side, travel, rack, margin, converged, phi)
+    t, r = np.meshgrid(travel, rack, indexing="ij")
+    frame, phi, psi = _solve_fields(hp, t, r, side)
     return _poses(hp, frame, travel, rack, phi, psi)
 
 
-def _poses(hp, frame, travel, rack, phi, psi) -> CornerPoses:
+def solve_strut_points(hp: StrutHardPoints, travel, rack, side: str = "left") -> PosePoints:
+    """Poses of a strut corner at paired points: pose k at travel[k], rack[k] [m] (n,).
+
+    The same solve as :func:`solve_strut` (each pose is solved on its own, vectorised), for a
+    set of poses that is not a full grid, e.g. the union of several grids. Raises
+    UnreachablePoseError for the first point, in the order given, the linkage cannot reach.
+    """
+    travel = np.atleast_1d(np.asarray(travel, dtype=float))
+    rack = np.atleast_1d(np.asarray(rack, dtype=float))
+    if travel.ndim != 1 or travel.shape != rack.shape:
+        raise ValueError("travel and rack must be 1-D arrays of one length")
+    frame, phi, psi = _solve_fields(hp, travel, rack, side)
+    return PosePoints(travel, rack, **_pose_fields(hp, frame, rack, phi, psi))
+
+
+def _pose_fields(hp, frame, rack, phi, psi) -> dict:
+    """The point fields of the poses (phi, psi) with the rack shift ``rack`` [m] (phi's shape)."""
     up = _Upright(hp, frame, phi)
     wheel = _place(hp, frame, phi, psi, hp.wheel_centre, up=up)
     spindle = unit(_place(hp, frame, phi, psi, hp.spindle_axis, point=False, up=up))
-    inner = hp.tie_rod_inner + rack[None, :, None] * np.array([0.0, 1.0, 0.0])
-    inner = np.broadcast_to(inner, wheel.shape).copy()
-    return CornerPoses(
-        travel=travel, rack=rack, wheel_centre=wheel, spindle_axis=spindle,
-        outboard_joint_centre=wheel - hp.outboard_joint_offset * spindle,
-        lower_ball_joint=up.lbj, steering_axis=up.k,
-        tie_rod_outer=_place(hp, frame, phi, psi, hp.tie_rod_outer, up=up),
-        tie_rod_inner=inner, arm_angle=phi)
+    inner = hp.tie_rod_inner + np.asarray(rack)[..., None] * np.array([0.0, 1.0, 0.0])
+    return dict(wheel_centre=wheel, spindle_axis=spindle,
+                outboard_joint_centre=wheel - hp.outboard_joint_offset * spindle,
+                lower_ball_joint=up.lbj, steering_axis=up.k,
+                tie_rod_outer=_place(hp, frame, phi, psi, hp.tie_rod_outer, up=up),
+                tie_rod_inner=np.broadcast_to(inner, wheel.shape).copy(), arm_angle=phi)
+
+
+def _poses(hp, frame, travel, rack, phi, psi) -> CornerPoses:
+    """CornerPoses of the grid travel (nt,) x rack (nr,) from its (nt, nr) angles."""
+    return CornerPoses(travel=travel, rack=rack,
+                       **_pose_fields(hp, frame, rack[None, :], phi, psi))
 
 
 def solve_strut_pose_scalar(hp: StrutHardPoints, travel: float, rack: float,

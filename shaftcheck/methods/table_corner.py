@@ -9,7 +9,7 @@ from __future__ import annotations
 import numpy as np
 
 from shaftcheck.errors import DesignError, UnreachablePoseError
-from shaftcheck.methods.strut_corner import CornerPoses
+from shaftcheck.methods.strut_corner import CornerPoses, PosePoints
 from shaftcheck.methods.vectors import unit
 from shaftcheck.records import record
 
@@ -70,13 +70,21 @@ class TableCorner:
         renormalised. A request outside the table raises UnreachablePoseError (no extrapolation).
         The steering axis is given when the table has lower_ball_joint and strut_top.
         """
+        travel = np.atleast_1d(np.asarray(travel, float))
+        rack = np.atleast_1d(np.asarray(rack, float))
+        tt, rr = np.meshgrid(travel, rack, indexing="ij")
+        points = self.poses_at(tt.ravel(), rr.ravel(), offset, side)
+        return points.grid(travel, rack, np.arange(tt.size).reshape(tt.shape))
+
+    def poses_at(self, travel, rack, offset: float, side: str = "left") -> PosePoints:
+        """Poses at paired points travel[k], rack[k] [m] (n,) by linear interpolation (as
+        :meth:`poses`); the first point outside the table, in the order given, raises."""
         from scipy.interpolate import RegularGridInterpolator
 
         travel = np.atleast_1d(np.asarray(travel, float))
         rack = np.atleast_1d(np.asarray(rack, float))
         self._check_range(travel, rack, side)
-        tt, rr = np.meshgrid(travel, rack, indexing="ij")
-        query = np.stack([tt, rr], axis=-1)
+        query = np.stack([travel, rack], axis=-1)
 
         def interp(values):
             if values is None:
@@ -88,20 +96,21 @@ class TableCorner:
         spindle = unit(interp(self.spindle_axis))
         lbj, top = interp(self.lower_ball_joint), interp(self.strut_top)
         steer = None if lbj is None or top is None else unit(top - lbj)
-        return CornerPoses(travel=travel, rack=rack, wheel_centre=wheel, spindle_axis=spindle,
-                           outboard_joint_centre=wheel - float(offset) * spindle,
-                           lower_ball_joint=lbj, steering_axis=steer,
-                           tie_rod_outer=interp(self.tie_rod_outer))
+        return PosePoints(travel=travel, rack=rack, wheel_centre=wheel, spindle_axis=spindle,
+                          outboard_joint_centre=wheel - float(offset) * spindle,
+                          lower_ball_joint=lbj, steering_axis=steer,
+                          tie_rod_outer=interp(self.tie_rod_outer))
 
     def _check_range(self, travel, rack, side):
+        """travel, rack [m]: paired points (n,)."""
         tol = 1e-9
         out_t = (travel < self.travel[0] - tol) | (travel > self.travel[-1] + tol)
         out_r = (rack < self.rack[0] - tol) | (rack > self.rack[-1] + tol)
-        bad = out_t[:, None] | out_r[None, :]
+        bad = out_t | out_r
         if np.any(bad):
-            i, j = np.argwhere(bad)[0]
+            k = int(np.flatnonzero(bad)[0])
             raise UnreachablePoseError(
-                side, travel[i] * 1e3, rack[j] * 1e3,
+                side, travel[k] * 1e3, rack[k] * 1e3,
                 f"outside the table (travel {self.travel[0] * 1e3:.1f} .. "
                 f"{self.travel[-1] * 1e3:.1f} mm, rack {self.rack[0] * 1e3:.1f} .. "
                 f"{self.rack[-1] * 1e3:.1f} mm); tables are not extrapolated")

@@ -5,8 +5,10 @@ context holds the design and computes on first use, then caches:
 
 * the load cases per side [N*m] (:func:`shaftcheck.methods.loads.load_cases`);
 * the torsional stiffness of each side and the left/right mismatch [%];
-* the travel x rack grids of every study, and the corner poses of each side solved **once** on
-  the union of those grids (:meth:`Context.poses` slices them for each study);
+* the travel x rack grids of every study, and the corner poses of each side solved **once** at
+  the union of those grids' poses (each pose once; :meth:`Context.poses` gathers each study's
+  grid from them);
+* the share of a measured history's time at each travel x rack cell (``pose_time``);
 * the intermediate-shaft lengths (given, or placed by the bearing study);
 * the joint geometry of both sides at the design position;
 * the first critical (whirl) speed of each shaft (``whirl_speeds``, filled by the strength
@@ -162,36 +164,102 @@ class Context:
         return grid(*self.design.suspension.rack_travel, TORQUE_STEER_RACK_POINTS)
 
     @cached_property
-    def _union(self) -> tuple[np.ndarray, np.ndarray]:
-        travel = sorted_unique(np.concatenate([self.travel, self.torque_steer_travel]))
-        rack = sorted_unique(np.concatenate([self.rack, self.torque_steer_rack]))
+    def pose_time(self) -> dict | None:
+        """side -> PoseTime of the design's measured torque history: the share of the recorded
+        time at each travel x rack cell (:func:`shaftcheck.studies.duty_cycle.pose_time_tables`);
+        None without a history with wheel-travel columns."""
+        history = getattr(self.design, "torque_history", None)
+        if history is None or history.travel is None:
+            return None
+        from shaftcheck.studies.duty_cycle import pose_time_tables
+
+        return pose_time_tables(self.design, history)
+
+    @cached_property
+    def _grids(self) -> tuple[tuple[np.ndarray, np.ndarray], ...]:
+        """Every travel x rack grid [m] the studies of this context ask for: the geometry grid
+        (its zero-rack column serves the bearing placement), the torque-steer grid, the grid of
+        the bearing duty's poses and the cells of a measured history."""
+        grids = [(self.travel, self.rack), (self.torque_steer_travel, self.torque_steer_rack)]
         if any(self.design.side(s).intermediate is not None for s in SIDES):
             from shaftcheck.studies.bearing import duty_poses  # bearing-life poses
 
             duty = duty_poses(self)
-            travel = sorted_unique(np.concatenate([travel, duty.travel]))
-            rack = sorted_unique(np.concatenate([rack, duty.rack]))
-        return travel, rack
+            grids.append((sorted_unique(duty.travel), sorted_unique(duty.rack)))
+        if self.pose_time is not None:
+            grids += [(p.travel, p.rack) for p in self.pose_time.values()]
+        return tuple(grids)
+
+    @cached_property
+    def _union(self) -> tuple[np.ndarray, np.ndarray]:
+        """The (travel, rack) pairs [m] of every grid of :attr:`_grids`, each once, sorted
+        travel-major: the poses one corner solve per side computes."""
+        t = np.concatenate([np.repeat(tg, rg.size) for tg, rg in self._grids])
+        r = np.concatenate([np.tile(rg, tg.size) for tg, rg in self._grids])
+        order = np.lexsort((r, t))
+        t, r = t[order], r[order]
+        first = np.ones(t.size, dtype=bool)
+        first[1:] = (t[1:] != t[:-1]) | (r[1:] != r[:-1])
+        return t[first], r[first]
+
+    @cached_property
+    def _union_keys(self) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+        """(travel values, rack values, key of each union pair), keys ascending: a pair's key
+        is its travel value's index times the number of rack values plus its rack value's."""
+        t, r = self._union
+        ut, ur = sorted_unique(t), sorted_unique(r)
+        return ut, ur, np.searchsorted(ut, t) * ur.size + np.searchsorted(ur, r)
+
+    def _locate(self, travel: np.ndarray, rack: np.ndarray) -> np.ndarray | None:
+        """Index (nt, nr) of each pose of the grid travel x rack among the union pairs, or None
+        when a pose is not one of them."""
+        ut, ur, keys = self._union_keys
+        ti, rj = np.searchsorted(ut, travel), np.searchsorted(ur, rack)
+        if not (np.all(ti < ut.size) and np.all(rj < ur.size)
+                and np.array_equal(ut[ti], travel) and np.array_equal(ur[rj], rack)):
+            return None
+        wanted = ti[:, None] * ur.size + rj[None, :]
+        pos = np.minimum(np.searchsorted(keys, wanted), keys.size - 1)
+        return pos if np.array_equal(keys[pos], wanted) else None
 
     # --- corner poses ---------------------------------------------------------------------------
-    def _solve(self, side: str, travel: np.ndarray, rack: np.ndarray):
-        from shaftcheck.methods.halfshaft_geometry import solve_strut
-
-        self.corner_solves += 1
+    def _corner(self, side: str):
+        """(suspension model, hard points or table, outboard joint offset [m]) of one side."""
         s = self.design.suspension
         c = s.left if side == "left" else s.right
         if s.model == "strut":
-            return solve_strut(strut_hard_points(self.design, side), travel, rack, side)
-        table = s.left_table if side == "left" else s.right_table
-        return table.poses(travel, rack, c.outboard_joint_offset, side)
+            return "strut", strut_hard_points(self.design, side), c.outboard_joint_offset
+        return "table", (s.left_table if side == "left" else s.right_table), \
+            c.outboard_joint_offset
+
+    def _solve(self, side: str, travel: np.ndarray, rack: np.ndarray):
+        """CornerPoses of a grid outside the union (one counted solve)."""
+        from shaftcheck.methods.halfshaft_geometry import solve_strut
+
+        self.corner_solves += 1
+        model, corner, offset = self._corner(side)
+        if model == "strut":
+            return solve_strut(corner, travel, rack, side)
+        return corner.poses(travel, rack, offset, side)
+
+    def _solve_union(self, side: str):
+        """PosePoints of the union pairs (one counted solve)."""
+        from shaftcheck.methods.halfshaft_geometry import solve_strut_points
+
+        self.corner_solves += 1
+        travel, rack = self._union
+        model, corner, offset = self._corner(side)
+        if model == "strut":
+            return solve_strut_points(corner, travel, rack, side)
+        return corner.poses_at(travel, rack, offset, side)
 
     def poses(self, side: str, travel=None, rack=None):
         """CornerPoses of one side over travel x rack [m] (default: the geometry grid).
 
-        Every grid a study of this context uses is part of one union grid, solved once per
-        side; other values (a caller's own grid) are solved on their own, once per grid, and
-        counted. Each (side, grid) slice is made once and shared by the derived contexts; its
-        arrays are read-only.
+        Every grid a study of this context uses is part of one set of poses (the union of the
+        grids' poses), solved once per side; other values (a caller's own grid) are solved on
+        their own, once per grid, and counted. Each (side, grid) slice is made once and shared
+        by the derived contexts; its arrays are read-only.
         """
         travel = self.travel if travel is None else np.atleast_1d(np.asarray(travel, float))
         rack = self.rack if rack is None else np.atleast_1d(np.asarray(rack, float))
@@ -202,19 +270,15 @@ class Context:
         return found
 
     def _slice(self, side: str, travel: np.ndarray, rack: np.ndarray):
-        ut, ur = self._union
-        ti, rj = np.searchsorted(ut, travel), np.searchsorted(ur, rack)
-        inside = (np.all(ti < ut.size) and np.all(rj < ur.size)
-                  and np.array_equal(ut[np.minimum(ti, ut.size - 1)], travel)
-                  and np.array_equal(ur[np.minimum(rj, ur.size - 1)], rack))
-        if not inside:
+        index = self._locate(travel, rack)
+        if index is None:
             key = (side, travel.tobytes(), rack.tobytes())
             if key not in self._own_grids:
                 self._own_grids[key] = self._solve(side, travel, rack)
             return self._own_grids[key].take(np.arange(travel.size), np.arange(rack.size))
         if side not in self._poses:
-            self._poses[side] = self._solve(side, ut, ur)
-        return self._poses[side].take(ti, rj)
+            self._poses[side] = self._solve_union(side)
+        return self._poses[side].grid(travel, rack, index)
 
     # --- intermediate shaft and design geometry -------------------------------------------------
     @cached_property
@@ -265,8 +329,8 @@ class Context:
     #: what depends on the geometry alone (corner, sides, joints, criteria), not on [vehicle],
     #: [powertrain] or [loads]: a variant's context shares it (:meth:`derive`)
     GEOMETRY_VALUES = ("travel", "rack", "roll", "torque_steer_travel", "torque_steer_rack",
-                       "_union", "_own_grids", "stiffness", "mismatch_pct", "bearings",
-                       "design_geometry")
+                       "pose_time", "_grids", "_union", "_union_keys", "_own_grids",
+                       "stiffness", "mismatch_pct", "bearings", "design_geometry")
 
     @cached_property
     def _own_grids(self) -> dict:

@@ -212,11 +212,12 @@ def pose_time_tables(design, history) -> dict:
     return out
 
 
-def bearing_pose_duty(design):
+def bearing_pose_duty(design, pose_time: dict | None = None):
     """The history's time at each pose, as the pose duty of the intermediate-shaft bearing
     study (its input hook :func:`shaftcheck.studies.bearing.pose_duty`): the occupied cells of
     the pose-time table of the side with the intermediate shaft. None without a history with
     travel columns or without an intermediate shaft (the bearing study then uses its default).
+    pose_time: the tables of :func:`pose_time_tables` when the caller has them already.
     """
     history = getattr(design, "torque_history", None)
     side = next((s for s in SIDES if design.side(s).intermediate is not None), None)
@@ -224,7 +225,7 @@ def bearing_pose_duty(design):
         return None
     from shaftcheck.studies.bearing import pose_duty
 
-    p = pose_time_tables(design, history)[side]
+    p = (pose_time or pose_time_tables(design, history))[side]
     ti, rj = np.nonzero(p.shares)
     return pose_duty(p.travel[ti] * 1e3, p.rack[rj] * 1e3, p.shares[ti, rj],
                      basis=f"measured history '{history.source}': time at each {side} wheel "
@@ -261,7 +262,7 @@ def run(design, ctx) -> tuple[DutyCycleResult | None, list]:
     notices = []
     pose_time, exposure = None, ()
     if history.travel is not None:
-        pose_time = pose_time_tables(design, history)
+        pose_time = ctx.pose_time
         exposure = joint_exposure(design, ctx, pose_time)
         for side, p in pose_time.items():
             if p.outside > 0:

@@ -26,7 +26,7 @@ def evaluate(design, *, travel_points: int = GEOMETRY_TRAVEL_POINTS,
 
     ctx = ctx or Context(design, travel_points=travel_points, rack_points=rack_points)
     if getattr(ctx, "bearing_pose_duty", "") is None:  # a measured history's time at each pose
-        ctx.bearing_pose_duty = duty_cycle.bearing_pose_duty(design)
+        ctx.bearing_pose_duty = duty_cycle.bearing_pose_duty(design, ctx.pose_time)
     checks: list = []
 
     def take(study):
