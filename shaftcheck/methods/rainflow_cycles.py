@@ -118,7 +118,10 @@ class TorqueHistory:
     increasing; torque: side -> [N*m] (drive positive); travel: side -> [m] (jounce positive) or
     None; rack [m] (+ towards the car's left) or None; distance: distance driven while
     recording [m] (NaN: not given); life: design-life distance the duty cycle stands for [m]
-    (NaN: not given). The rainflow cycles are counted once, on first use (:attr:`cycles`).
+    (NaN: not given). The rainflow cycles are counted once, on first use (:attr:`cycles`), and
+    the time shares of each travel x rack cell once per cell grid (:meth:`pose_shares`): a
+    study that evaluates one design many times (variants, sizing, tolerances) reads the history
+    once.
     """
 
     source: str
@@ -156,6 +159,22 @@ class TorqueHistory:
     def cycles(self) -> dict:
         """side -> :class:`CountedCycles` of the side's torque (counted once)."""
         return {s: count_cycles(self.torque[s]) for s in SIDES}
+
+    @cached_property
+    def _pose_shares(self) -> dict:
+        return {}
+
+    def pose_shares(self, side: str, travel_edges, rack_edges) -> tuple[np.ndarray, float]:
+        """:func:`pose_time_shares` of one side's travel and the rack over the cells of the
+        given edges [m], computed once per side and edges."""
+        te, re = np.asarray(travel_edges, float), np.asarray(rack_edges, float)
+        key = (side, te.tobytes(), re.tobytes())
+        if key not in self._pose_shares:
+            shares, outside = pose_time_shares(self.travel[side], self.rack, self.time_weights(),
+                                               te, re)
+            shares.setflags(write=False)
+            self._pose_shares[key] = (shares, outside)
+        return self._pose_shares[key]
 
     def time_weights(self) -> np.ndarray:
         """Time each sample stands for [s]: half the interval to each neighbour (trapezoid

@@ -198,16 +198,13 @@ def read_spectrum(path, distance_km: float | None = None, life_km: float | None 
 
 def pose_time_tables(design, history) -> dict:
     """side -> :class:`PoseTime` of a history with travel columns (module docstring)."""
-    from shaftcheck.methods.rainflow_cycles import pose_time_shares
-
     s = design.suspension
     nt, nr = POSE_CELLS
     te = np.linspace(*s.travel, nt + 1)
     re = np.linspace(*s.rack_travel, nr + 1)
-    weights = history.time_weights()
     out = {}
     for side in SIDES:
-        shares, outside = pose_time_shares(history.travel[side], history.rack, weights, te, re)
+        shares, outside = history.pose_shares(side, te, re)
         out[side] = PoseTime((te[:-1] + te[1:]) / 2, (re[:-1] + re[1:]) / 2, shares, outside)
     return out
 
