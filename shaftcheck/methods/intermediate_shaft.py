@@ -9,8 +9,9 @@ revolutions, seconds or metres (the caller converts to hours and km).
   at zero rack, with a golden-section search (:func:`golden_section_minimum`, Kiefer 1953;
   Press et al., Numerical Recipes, 3rd ed., §10.2) on the best interval of a coarse scan,
   narrowed by a second scan of that interval (the objective is a maximum of absolute values:
-  kinked and possibly multimodal, so the search works on the scan's best interval only). Plain Python, no scipy import on the ``check`` path; a test
-  compares it with scipy.optimize.minimize_scalar(method="bounded").
+  kinked and possibly multimodal, so the search works on the scan's best interval only). Plain
+  Python, no scipy import on the ``check`` path; a test compares it with
+  scipy.optimize.minimize_scalar(method="bounded").
 * Bearing loads (docs/methods.md §5.2; shaft free body §4.4, ``cv_joint_bisector_moment``): at the
   intermediate shaft's outer end the inboard joint puts the secondary couple -M_I (transverse
   part) and the halfshaft's transverse force F_O on the intermediate shaft. The shaft is a beam on
