@@ -7,7 +7,6 @@ fast), prints with rich, and maps errors: bad input -> one line on stderr, exit 
 from __future__ import annotations
 
 import functools
-import json
 import math
 import os
 import sys
@@ -164,6 +163,8 @@ def guarded(fn):
 
 
 def _print_json(data) -> None:
+    import json
+
     sys.stdout.write(json.dumps(data, indent=2, sort_keys=False) + "\n")
 
 

@@ -9,7 +9,6 @@ into nested data.
 from __future__ import annotations
 
 import datetime
-import json
 import re
 
 from shaftcheck.model.limits import MAX_ECHO
@@ -35,6 +34,8 @@ def key_name(name: str) -> str:
     quoted snippet (a TOML quoted key)."""
     if _BARE_KEY.match(name):
         return name
+    import json  # only for a key that needs quoting (an error message)
+
     return json.dumps(snippet(name, MAX_ECHO), ensure_ascii=False)
 
 

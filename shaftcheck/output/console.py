@@ -12,7 +12,6 @@ import math
 from contextlib import contextmanager
 
 from rich.console import Console
-from rich.table import Table
 from rich.text import Text
 
 from shaftcheck.output.cautions import CAUTION_LINE
@@ -105,6 +104,8 @@ def _detail(c) -> str | None:
 
 
 def _check_wide(result, title: str) -> None:
+    from rich.table import Table  # a wide terminal only: piped output never builds a box
+
     t = Table(title=title, title_justify="left", expand=True)
     t.add_column("check (id, governing location)", ratio=1, overflow="fold")
     for col in ("side", "value", "limit", "margin", "verdict"):
