@@ -141,17 +141,31 @@ def boxed_fits(console: Console, cols: Sequence[Col], rows: Sequence[Sequence[st
     return sum(natural_width(cols, rows)) + 3 * len(cols) + 1 <= width_of(console)
 
 
+def emit(console: Console, line: Text) -> None:
+    """Print one laid-out line as it is (no markup, no re-wrapping). On a terminal rich renders
+    its styles; piped, the line's plain text is written straight to the console's file, which is
+    what rich writes there (no style; tabs expanded to its tab stops) without its per-line
+    rendering work."""
+    if console.is_terminal:
+        console.print(line, soft_wrap=True)
+        return
+    if "\t" in line.plain:
+        line = line.copy()
+        line.expand_tabs(console.tab_size)
+    console.file.write(line.plain + "\n")
+
+
 def print_lines(console: Console, lines: Sequence[Text | str]) -> None:
     """Print already laid-out lines as they are (no markup, no re-wrapping)."""
     for line in lines:
-        console.print(line if isinstance(line, Text) else Text(line), soft_wrap=True)
+        emit(console, line if isinstance(line, Text) else Text(line))
 
 
 def print_text(console: Console, text: str, indent: str = "", hanging: str | None = None,
                style: str | None = None) -> None:
     """Print ``text`` wrapped to the console width with a hanging indent (no markup)."""
     for line in wrap(text, width_of(console), indent, hanging):
-        console.print(Text(line, style=style or ""), soft_wrap=True)
+        emit(console, Text(line, style=style or ""))
 
 
 def print_table(console: Console, title: str, cols: Sequence[Col],
