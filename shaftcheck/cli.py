@@ -136,6 +136,23 @@ def _output_name(text: str, suffix: str) -> tuple[str, bool]:
     return text + suffix, True
 
 
+#: exit status when the reader closes standard output early (``| head``): what a shell reports
+#: for a program ended by SIGPIPE (128 + 13), so a pipeline under ``set -o pipefail`` sees that
+#: the output was cut, and it cannot be read as a verdict (0 or 1)
+READER_GONE = 141
+
+
+def _reader_gone():
+    """Stop quietly after the reader closed standard output (Python's signal module
+    documentation, "Note on SIGPIPE": point stdout at devnull so the exit flush cannot fail)."""
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+    except (OSError, ValueError):
+        pass
+    sys.exit(READER_GONE)
+
+
 def guarded(fn):
     """Turn shaftcheck's own errors (bad input) into one line on stderr and exit status 2."""
 
@@ -153,6 +170,8 @@ def guarded(fn):
             _fail(str(exc))
         except typer.Exit:
             raise
+        except BrokenPipeError:
+            _reader_gone()
         except Exception as exc:  # a defect of shaftcheck, not of the input
             if os.environ.get("SHAFTCHECK_DEBUG"):
                 raise

@@ -11,9 +11,6 @@ from __future__ import annotations
 import math
 from contextlib import contextmanager
 
-from rich.console import Console
-from rich.text import Text
-
 from shaftcheck.output.cautions import CAUTION_LINE
 from shaftcheck.output.layout import Col, print_lines, print_table, print_text, width_of
 from shaftcheck.output.numbers import (
@@ -23,9 +20,11 @@ from shaftcheck.output.numbers import (
     fmt_margin,
     fmt_number,
 )
+from shaftcheck.output.terminal import make_console
 from shaftcheck.units import NMRAD_TO_NMDEG
 
-console = Console()
+#: rich's Console on a terminal, a plain writer on a pipe (shaftcheck.output.terminal)
+console = make_console()
 
 #: a terminal at least this wide gets the check table with full titles in a box
 WIDE = 120
@@ -105,6 +104,7 @@ def _detail(c) -> str | None:
 
 def _check_wide(result, title: str) -> None:
     from rich.table import Table  # a wide terminal only: piped output never builds a box
+    from rich.text import Text
 
     t = Table(title=title, title_justify="left", expand=True)
     t.add_column("check (id, governing location)", ratio=1, overflow="fold")
@@ -489,6 +489,7 @@ def share_pct(fraction: float) -> str:
 @contextmanager
 def progress_bar(label: str, total: int):
     """A transient progress bar on stderr (stdout stays clean); yields ``update(done, total)``."""
+    from rich.console import Console
     from rich.progress import Progress
 
     bar = Progress(console=Console(stderr=True), transient=True)

@@ -21,10 +21,11 @@ from __future__ import annotations
 import textwrap
 from collections.abc import Callable, Sequence
 
-from rich.console import Console
-from rich.text import Text
-
 from shaftcheck.records import record
+
+#: control characters rich's Text drops from what it prints (bell, backspace, vertical tab, form
+#: feed, carriage return); a piped line drops them too, so the bytes are rich's
+_DROPPED_CONTROLS = dict.fromkeys((7, 8, 11, 12, 13))
 
 #: narrowest width laid out (a narrower console still gets lines of at most its width, wrapped)
 MIN_WIDTH = 20
@@ -43,7 +44,44 @@ class Col:
     gap: int = 2
 
 
-def width_of(console: Console) -> int:
+class Line:
+    """One laid-out output line: pieces of text, each with an optional rich style, and a style
+    for the whole line. Styles show only on a terminal (:meth:`to_text`); piped, the line is its
+    :attr:`plain` text. Built like a rich Text (``append``, ``rstrip``) without importing rich."""
+
+    __slots__ = ("pieces", "style", "stripped")
+
+    def __init__(self, text: str = "", style: str | None = None):
+        self.pieces: list[tuple[str, str | None]] = [(text, None)] if text else []
+        self.style = style or ""
+        self.stripped = False
+
+    def append(self, text: str, style: str | None = None) -> Line:
+        self.pieces.append((text, style or None))
+        return self
+
+    def rstrip(self) -> None:
+        """Drop trailing white space (at print time, as rich's Text.rstrip)."""
+        self.stripped = True
+
+    @property
+    def plain(self) -> str:
+        text = "".join(t for t, _ in self.pieces).translate(_DROPPED_CONTROLS)
+        return text.rstrip() if self.stripped else text
+
+    def to_text(self):
+        """The line as a rich Text with its styles (for a terminal)."""
+        from rich.text import Text
+
+        t = Text(style=self.style)
+        for text, style in self.pieces:
+            t.append(text, style=style)
+        if self.stripped:
+            t.rstrip()
+        return t
+
+
+def width_of(console) -> int:
     """Usable width of ``console`` in characters."""
     return max(int(console.width), MIN_WIDTH)
 
@@ -88,27 +126,27 @@ def natural_width(cols: Sequence[Col], rows: Sequence[Sequence[str]]) -> list[in
 
 def table_lines(cols: Sequence[Col], rows: Sequence[Sequence[str]], width: int,
                 details: Sequence[str | None] | None = None,
-                style: Callable[[int, int], str | None] | None = None) -> list[Text]:
+                style: Callable[[int, int], str | None] | None = None) -> list[Line]:
     """Plain columns that fit in ``width``: a header, a dashed rule, one line per row and the
     row's detail (when given) on indented lines below it. Cells may carry a rich style
     (``style(row, col)``), shown only on a terminal."""
     widths = natural_width(cols, rows)
-    out: list[Text] = []
+    out: list[Line] = []
     blocks = _blocks(cols, widths, width)
     for b, idx in enumerate(blocks):
         if b:
-            out.append(Text(""))
+            out.append(Line(""))
         if sum(widths[i] + (cols[i].gap if n else 0) for n, i in enumerate(idx)) > width:
             out += _stacked(cols, rows, width, details, style)
             return out
-        head = Text()
+        head = Line()
         for n, i in enumerate(idx):
             head.append(" " * (cols[i].gap if n else 0) + _cell(cols[i].header, widths[i],
                                                                   cols[i].align))
-        out.append(Text(head.plain.rstrip()))
-        out.append(Text("-" * len(head.plain.rstrip())))
+        out.append(Line(head.plain.rstrip()))
+        out.append(Line("-" * len(head.plain.rstrip())))
         for r, row in enumerate(rows):
-            line = Text()
+            line = Line()
             for n, i in enumerate(idx):
                 line.append(" " * (cols[i].gap if n else 0))
                 line.append(_cell(row[i], widths[i], cols[i].align),
@@ -116,24 +154,24 @@ def table_lines(cols: Sequence[Col], rows: Sequence[Sequence[str]], width: int,
             line.rstrip()
             out.append(line)
             if details and details[r] and b == len(blocks) - 1:
-                out += [Text(s) for s in wrap(details[r], width, " " * DETAIL_INDENT)]
+                out += [Line(s) for s in wrap(details[r], width, " " * DETAIL_INDENT)]
     return out
 
 
-def _stacked(cols, rows, width, details, style) -> list[Text]:
+def _stacked(cols, rows, width, details, style) -> list[Line]:
     """Rows as 'header: value' lines (when even one column beside the keys does not fit)."""
     out = []
     for r, row in enumerate(rows):
         for i, c in enumerate(cols):
             indent = "" if i == 0 else "  "
             for k, s in enumerate(wrap(f"{c.header}: {row[i]}" if i else row[i], width, indent)):
-                out.append(Text(s, style=(style(r, i) if style and k == 0 else None) or ""))
+                out.append(Line(s, style=(style(r, i) if style and k == 0 else None) or ""))
         if details and details[r]:
-            out += [Text(s) for s in wrap(details[r], width, " " * DETAIL_INDENT)]
+            out += [Line(s) for s in wrap(details[r], width, " " * DETAIL_INDENT)]
     return out
 
 
-def boxed_fits(console: Console, cols: Sequence[Col], rows: Sequence[Sequence[str]]) -> bool:
+def boxed_fits(console, cols: Sequence[Col], rows: Sequence[Sequence[str]]) -> bool:
     """True on a terminal whose width holds the boxed table (3 characters of rule and padding per
     column, one more at the end)."""
     if not console.is_terminal:
@@ -141,34 +179,39 @@ def boxed_fits(console: Console, cols: Sequence[Col], rows: Sequence[Sequence[st
     return sum(natural_width(cols, rows)) + 3 * len(cols) + 1 <= width_of(console)
 
 
-def emit(console: Console, line: Text) -> None:
+def emit(console, line: Line | str) -> None:
     """Print one laid-out line as it is (no markup, no re-wrapping). On a terminal rich renders
-    its styles; piped, the line's plain text is written straight to the console's file, which is
-    what rich writes there (no style; tabs expanded to its tab stops) without its per-line
-    rendering work."""
+    it with its styles; otherwise the line's plain text is written to the console's file, which
+    is what rich writes there (no style, tabs expanded to its tab stops)."""
+    if isinstance(line, str):
+        line = Line(line)
     if console.is_terminal:
-        console.print(line, soft_wrap=True)
+        console.print(line.to_text(), soft_wrap=True)
         return
-    if "\t" in line.plain:
-        line = line.copy()
-        line.expand_tabs(console.tab_size)
-    console.file.write(line.plain + "\n")
+    text = line.plain
+    if "\t" in text:  # rich expands tabs by display cells (wide characters count two): ask it
+        from rich.text import Text
+
+        t = Text(text)
+        t.expand_tabs(console.tab_size)
+        text = t.plain
+    console.file.write(text + "\n")
 
 
-def print_lines(console: Console, lines: Sequence[Text | str]) -> None:
+def print_lines(console, lines: Sequence[Line | str]) -> None:
     """Print already laid-out lines as they are (no markup, no re-wrapping)."""
     for line in lines:
-        emit(console, line if isinstance(line, Text) else Text(line))
+        emit(console, line)
 
 
-def print_text(console: Console, text: str, indent: str = "", hanging: str | None = None,
+def print_text(console, text: str, indent: str = "", hanging: str | None = None,
                style: str | None = None) -> None:
     """Print ``text`` wrapped to the console width with a hanging indent (no markup)."""
     for line in wrap(text, width_of(console), indent, hanging):
-        emit(console, Text(line, style=style or ""))
+        emit(console, Line(line, style=style))
 
 
-def print_table(console: Console, title: str, cols: Sequence[Col],
+def print_table(console, title: str, cols: Sequence[Col],
                 rows: Sequence[Sequence[str]], *, details: Sequence[str | None] | None = None,
                 style: Callable[[int, int], str | None] | None = None) -> None:
     """A table by the rules of this module: boxed rich table on a terminal wide enough for it,
@@ -177,6 +220,7 @@ def print_table(console: Console, title: str, cols: Sequence[Col],
         print_text(console, title, hanging="  ", style="bold" if console.is_terminal else None)
     if boxed_fits(console, cols, rows) and not details:
         from rich.table import Table
+        from rich.text import Text
 
         t = Table(title_justify="left")
         for c in cols:
