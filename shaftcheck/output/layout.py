@@ -2,13 +2,14 @@
 
 Presentation only. The rules every printing function follows:
 
-1. **No line longer than the console width.** rich takes the width from the terminal, or from
-   ``COLUMNS`` when the output is piped (80 when neither says). Text is wrapped with a hanging
+1. **No line longer than the console width.** The width comes from the terminal, or from
+   ``COLUMNS`` when the output is piped (80 when neither says; rich's rule, kept by the plain
+   writer of :mod:`shaftcheck.output.terminal`). Text is wrapped with a hanging
    indent (:func:`wrap`), tables are laid out to fit (:func:`table_lines`): when all columns do
    not fit side by side, the columns after the key columns are split into blocks, each repeating
    the key columns (as a long numeric table is split across pages).
 2. **Box drawing and colour only on a terminal.** Piped output (a CI log, a file, ``| less``)
-   gets plain ASCII columns under a dashed header rule; rich drops colour by itself there.
+   gets plain ASCII columns under a dashed header rule, written without styles.
 3. **Wide tables only when the terminal is wide.** A boxed rich table is used on a terminal when
    its natural width fits; otherwise the plain columns (with colour) are used.
 

@@ -9,17 +9,35 @@ from shaftcheck.report import styles as st
 
 
 class Heading(Paragraph):
-    """A section heading; the document adds it to the PDF outline (bookmarks)."""
+    """A section heading; the document adds it to the PDF outline (bookmarks). ``numbered``: a
+    level-1 heading the document numbers in reading order (:func:`number_sections`)."""
 
-    def __init__(self, text: str, level: int = 1):
+    def __init__(self, text: str, level: int = 1, numbered: bool = False):
         super().__init__(st.esc(text), st.H1 if level == 1 else st.H2)
+        self.title = text
+        self.level = level
+        self.numbered = numbered
         self.outline_text = st.clean(text)
         self.outline_level = level - 1
 
 
-def section(title: str) -> list:
-    """A level-1 heading that starts lower on a page only with room below it."""
-    return [CondPageBreak(150), Heading(title, 1)]
+def section(title: str, numbered: bool = True) -> list:
+    """A level-1 heading that starts lower on a page only with room below it; numbered by the
+    document in reading order unless ``numbered`` is False (front matter such as the release
+    record). Text refers to sections by their titles, never by number: a design without a
+    measured history or a tolerance study has fewer sections."""
+    return [CondPageBreak(150), Heading(title, 1, numbered)]
+
+
+def number_sections(flowables: list) -> list:
+    """The flowables with every numbered level-1 heading prefixed by its number, 1, 2, ..."""
+    out, n = [], 0
+    for f in flowables:
+        if isinstance(f, Heading) and f.level == 1 and f.numbered:
+            n += 1
+            f = Heading(f"{n}  {f.title}", 1)
+        out.append(f)
+    return out
 
 
 def sub(title: str) -> list:

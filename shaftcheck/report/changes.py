@@ -67,7 +67,7 @@ def _checks(changes) -> list:
 def changes_section(changes) -> list:
     """The section (heading, what was compared, the outcome, both tables)."""
     o = changes.old
-    out = section(title(changes))
+    out = section(title(changes), numbered=False)
     out.append(intro(f"This revision compared with {PurePath(o.path).name}: "
                      f"{o.name}, revision {o.revision} ({o.date}), design file SHA-256 "
                      f"{o.sha256[:12] or '-'}, evaluated by the same shaftcheck with the same "

@@ -19,7 +19,7 @@ from reportlab.platypus import SimpleDocTemplate
 
 from shaftcheck.output.files import check_target, write_bytes_atomic
 from shaftcheck.report import styles as st
-from shaftcheck.report.blocks import Heading
+from shaftcheck.report.blocks import Heading, number_sections
 from shaftcheck.report.duty_cycle import duty_cycle
 from shaftcheck.report.geometry import geometry
 from shaftcheck.report.inputs import inputs
@@ -170,7 +170,7 @@ def story(result, changes=None) -> list:
     for part in (stiffness, geometry, strength, duty_cycle, torque_steer, tolerance, inputs):
         out += part(result)
     rd = result.to_dict()  # the methods and cautions pages also read the JSON form
-    return out + methods(result, rd) + cautions(result, rd)
+    return number_sections(out + methods(result, rd) + cautions(result, rd))
 
 
 def build_pdf(result, changes=None) -> bytes:

@@ -193,7 +193,7 @@ def _bearing(b) -> list:
 def geometry(result) -> list:
     design, geo = result.design, result.geometry
     sw = sweep(geo)
-    out = section("3  Joint geometry over wheel travel and steering")
+    out = section("Joint geometry over wheel travel and steering")
     out.append(intro("Joint angles are the 3-D angles between the gearbox output axis, the shaft "
                     "axis and the wheel spindle axis; the suspension corner is solved at every "
                     "pose of the wheel travel x rack travel grid."))

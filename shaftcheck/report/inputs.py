@@ -218,7 +218,7 @@ def materials_used(design) -> list:
 
 def inputs(result) -> list:
     design = result.design
-    out = section("6  Inputs")
+    out = section("Inputs")
     out.append(intro("Every value of the design file as shaftcheck read it (defaults filled in), "
                     "under the file's own key names and units."))
     out += sub("Vehicle, powertrain, torque-steer conditions, tolerances")

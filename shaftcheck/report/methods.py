@@ -87,7 +87,7 @@ def conventions_list() -> list:
 
 
 def methods(result, rd: dict) -> list:
-    out = section("7  Methods and sources")
+    out = section("Methods and sources")
     out.append(intro("Every source behind the numbers in this report: the methods named by the "
                      "checks and by the computed results, from shaftcheck's citation registry. "
                      f"{METHODS_DOC} (in the shaftcheck repository) states each method, its "
@@ -108,7 +108,7 @@ def methods(result, rd: dict) -> list:
 
 
 def cautions(result, rd: dict) -> list:
-    out = section("8  Cautions and limitations")
+    out = section("Cautions and limitations")
     for p in CAUTION_PARAGRAPHS:
         out.append(text(p))
     d = rd["design"]

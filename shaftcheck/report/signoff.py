@@ -83,7 +83,7 @@ def signoff(result) -> list:
     block = [Paragraph(lead + " Names come from the design file where it gives them; dates and "
                        "signatures are entered by hand on release.", st.BODY),
              gap(1), signoff_table(p)]
-    out = section(TITLE)
+    out = section(TITLE, numbered=False)
     out.append(KeepTogether(block))
     out += sub("Revision history")
     out += revision_table(p)

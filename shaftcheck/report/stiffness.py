@@ -138,7 +138,7 @@ def _proposals(result) -> list:
 
 
 def stiffness(result) -> list:
-    out = section("2  Stiffness balance")
+    out = section("Stiffness balance")
     out.append(intro("Unequal torsional stiffness of the two halfshafts makes the wheel torques "
                     "differ while torque builds up. Each side is a chain of springs in series: "
                     "joints (where a stiffness is given), spline ends, plain and tubular "

@@ -183,7 +183,7 @@ def _miner_table(members: list) -> list:
 def strength(result) -> list:
     design, sr = result.design, result.strength
     crit = design.criteria
-    out = section("4  Strength")
+    out = section("Strength")
     out.append(intro(
         "Governing margins of every shaft. Static strength: the criterion uses the nominal "
         "shear against the shear yield strength (ductile steel, no stress concentration under "
@@ -222,5 +222,5 @@ def strength(result) -> list:
     if any(e.strength.notes for e in sr.shafts):
         out.append(gap(1))
         out.append(text("The strength methods raised notes on their validity for this design: "
-                        "see section 7, 'Validity ranges and flags'.", st.SMALL))
+                        "see 'Validity ranges and flags' under 'Methods and sources'.", st.SMALL))
     return out

@@ -102,9 +102,9 @@ def summary(result) -> list:
     out = title_block(result) + verdict_box(result) + caution_box() + headline(result)
     if result.notices:
         out += [gap(1)] + bullets([f"Notice: {n}" for n in result.notices])
-    out += section("1  Summary of checks")
+    out += section("Summary of checks")
     out += [text("Every acceptance check of the design, in the order shaftcheck runs them. "
-                 "Sections 2 to 5 show how each result comes about; section 7 names the "
-                 "published method behind each.", st.SMALL)]
+                 "The sections after the release record show how each result comes about; "
+                 "'Methods and sources' names the published method behind each.", st.SMALL)]
     out += checks_table(result)
     return out

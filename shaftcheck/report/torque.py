@@ -202,7 +202,7 @@ def _transient(tr) -> list:
 
 def torque_steer(result) -> list:
     ts = result.torque_steer
-    out = section("5  Torque steer")
+    out = section("Torque steer")
     if ts is None:
         return out + [para("No torque-steer results.")]
     out.append(intro("The moment each side's drive forces and joints put about its steering "
