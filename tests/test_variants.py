@@ -102,8 +102,25 @@ def test_every_row_is_the_worst_over_the_variants(torque_vs_traction):
         margins = [c["margin"] for v in cases.values() for c in v["checks"]
                    if c["id"] == row["id"]]
         assert row["margin"] == min(margins)
-        assert row == {**next(c for c in cases[row["variant"]]["checks"]
-                              if c["id"] == row["id"]), "variant": row["variant"]}
+        own = next(c for c in cases[row["variant"]]["checks"] if c["id"] == row["id"])
+        assert {k: v for k, v in row.items() if k != "variants_alike"} == {
+            **own, "variant": row["variant"]}
+        # "alike" exactly when every case has this row with one value
+        values = {(c["value"], c["limit"]) for v in cases.values() for c in v["checks"]
+                  if c["id"] == row["id"]}
+        everywhere = all(any(c["id"] == row["id"] for c in v["checks"]) for v in cases.values())
+        assert row.get("variants_alike", False) == (everywhere and len(values) == 1)
+
+
+def test_rows_every_variant_shares_are_marked_alike():
+    result = evaluate_variants(load_design(LINE))
+    rows = {(c.id, c.side): c for c in result.checks}
+    geometry = rows[("inboard_angle_range_left", "left")]
+    assert geometry.variants_alike and geometry.governing_text == "all variants alike"
+    assert geometry.to_dict()["variants_alike"] is True
+    strength = rows[("static_design_left", "left")]  # loads differ between the engines
+    assert not strength.variants_alike and strength.governing_text == "variant diesel_1_6"
+    assert "variants_alike" not in strength.to_dict()
 
 
 def test_a_variant_equals_the_design_written_with_its_values(tmp_path):

@@ -95,7 +95,7 @@ def _detail(c) -> str | None:
     """The indented line under a check: its governing location, and, when the check has no
     value or lies outside its method (a refused computation), the reason from its note; first
     its governing variant when the design has [[variants]]."""
-    parts = [f"variant {c.variant}"] if getattr(c, "variant", "") else []
+    parts = [c.governing_text] if c.governing_text else []
     parts += [c.location] if c.location else []
     if (math.isnan(c.value) or c.outside_method) and c.note:
         parts.append(c.note)
@@ -168,8 +168,8 @@ def print_check(result) -> None:
         print_text(console, f"VERDICT: all {len(result.checks)} checks met", style="bold green")
     else:
         print_text(console, f"VERDICT: {len(failed)} of {len(result.checks)} checks NOT met: "
-                   + ", ".join(c.id + (f" (variant {c.variant})" if getattr(c, "variant", "")
-                                         else "") for c in failed), style="bold red")
+                   + ", ".join(c.id + (f" ({c.governing_text})" if c.governing_text else "")
+                               for c in failed), style="bold red")
     print_caution()
 
 

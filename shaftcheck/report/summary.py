@@ -39,7 +39,7 @@ def verdict_box(result) -> list:
     head = f"VERDICT: {len(failed)} of {len(checks)} checks NOT met - not releasable as designed"
     body = [Paragraph(st.coloured(st.esc(head), st.FAIL_HEX), st.VERDICT), gap(1)]
     body += bullets([f"{st.esc(c.title)} ({st.esc(c.side)}"
-                     f"{', variant ' + st.esc(c.variant) if c.variant else ''}): {_value(c)}, "
+                     f"{', ' + st.esc(c.governing_text) if c.variant else ''}): {_value(c)}, "
                      f"limit {_limit(c)}" for c in failed], markup=True)
     return [boxed(body, st.FAIL_BG, st.FAIL)]
 
@@ -83,8 +83,7 @@ def _margin(c) -> str:
 def checks_table(result) -> list:
     rows, bad = [], []
     for i, c in enumerate(result.checks):
-        place = "; ".join(x for x in (f"variant {c.variant}" if c.variant else "", c.location)
-                          if x)
+        place = "; ".join(x for x in (c.governing_text, c.location) if x)
         where = f'<br/><font color="{st.MUTED_HEX}" size="6.8">{st.esc(place)}</font>' \
             if place else ""
         note = f'<br/><font color="{st.MUTED_HEX}" size="6.8">note: {st.esc(c.note)}</font>' \

@@ -65,7 +65,8 @@ def matrix(result) -> list:
             cells = [_check_label(row)]
             for name in block:
                 c = by_case[name].get((row.id, row.side))
-                cells.append("-" if c is None else _cell(c, name == row.variant))
+                cells.append("-" if c is None
+                             else _cell(c, name == row.variant and not row.variants_alike))
             rows.append(cells)
             if any(not by_case[n][(row.id, row.side)].passed for n in block
                    if (row.id, row.side) in by_case[n]):

@@ -33,9 +33,20 @@ class Check:
     note: str = ""
     #: the variant this row is the worst of (a design with [[variants]]); "" otherwise
     variant: str = ""
+    #: every variant gives this row the same value (e.g. a geometry check): ``variant`` is then
+    #: only the first case in file order, not a worse one
+    variants_alike: bool = False
     #: part of the value lies outside the method's range (e.g. fatigue cycles below 10^3 cycles
     #: of life, counted conservatively): the check is not met whatever the value; the note says why
     outside_method: bool = False
+
+    @property
+    def governing_text(self) -> str:
+        """Which case of a vehicle line this row is: 'variant <name>', 'all variants alike' or
+        '' (a design without variants)."""
+        if not self.variant:
+            return ""
+        return "all variants alike" if self.variants_alike else f"variant {self.variant}"
 
     @property
     def passed(self) -> bool:
@@ -58,6 +69,7 @@ class Check:
     def to_dict(self) -> dict:
         return {
             **({"variant": self.variant} if self.variant else {}),
+            **({"variants_alike": True} if self.variants_alike else {}),
             "id": self.id,
             "title": self.title,
             "side": self.side,

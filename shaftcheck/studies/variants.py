@@ -10,9 +10,11 @@ strength, bearing life and torque steer depend on the loads).
 
 Governing variant of a check = the case (base design or variant) whose row has the smallest
 margin (:attr:`Check.margin`, docs/methods.md §16.1): the worst against the limit; on a tie the
-first in file order, the base design first. The governing case of the whole design is the one
-holding the smallest margin of all its checks; its study results (sides, kinematics, strength,
-torque steer, ...) stand for the design in :class:`Result` and the report's detail sections.
+first in file order, the base design first. A row whose value every case shares (a geometry
+check, say) is marked ``variants_alike`` and shown as "all variants alike". The governing case
+of the whole design is the one holding the smallest margin of all its checks; its study results
+(sides, kinematics, strength, torque steer, ...) stand for the design in :class:`Result` and the
+report's detail sections.
 Method statement: docs/methods.md §16.5. No I/O.
 """
 
@@ -85,15 +87,22 @@ def governing_rows(cases: list[tuple[str, Result]]) -> list[Check]:
     (e.g. the split-friction check of a limited-slip variant), in their order."""
     order: list[tuple[str, str]] = []
     worst: dict[tuple[str, str], Check] = {}
+    values: dict[tuple[str, str], set] = {}
     for name, res in cases:
         for c in res.checks:
             key = (c.id, c.side)
+            values.setdefault(key, set()).add((c.value, c.limit, c.outside_method))
             if key not in worst:
                 order.append(key)
                 worst[key] = dataclasses.replace(c, variant=name)
             elif _margin(c) < _margin(worst[key]):
                 worst[key] = dataclasses.replace(c, variant=name)
-    return [worst[k] for k in order]
+    counts = {k: sum(any((c.id, c.side) == k for c in res.checks) for _, res in cases)
+              for k in order}
+    alike = {k for k in order
+             if len(cases) > 1 and counts[k] == len(cases) and len(values[k]) == 1}
+    return [dataclasses.replace(worst[k], variants_alike=True) if k in alike else worst[k]
+            for k in order]
 
 
 def _margin(c: Check) -> float:
