@@ -97,3 +97,19 @@ def test_defaults_are_generated_not_typed(monkeypatch):
 def test_starter_is_an_invented_car():
     text = starter.starter_text()
     assert "invented" in text and "no real vehicle or" in text
+
+
+def test_the_commented_variant_example_is_a_working_variant(tmp_path):
+    # removing the "# " of the example's lines gives a design with one variant that loads and
+    # runs (the example is text in a comment: nothing else checks it)
+    text = starter.starter_text()
+    block = text.split("# [[variants]]", 1)[1]
+    lines = ["[[variants]]"] + [ln[2:] for ln in block.splitlines()[1:] if ln.startswith("# ")]
+    path = tmp_path / "line.toml"
+    path.write_text(text + "\n" + "\n".join(lines) + "\n", encoding="utf-8")
+    from shaftcheck.studies.variants import evaluate_variants
+
+    design = load_design(path)
+    assert [v.name for v in design.variants] == ["stronger_engine"]
+    result = evaluate_variants(design)
+    assert len(result.variants.cases) == 2

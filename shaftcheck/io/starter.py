@@ -266,4 +266,14 @@ cycles = 1.0e6
 diameter_mm = 0.05
 wall_mm = 0.15
 joint_centre_mm = 1.0
+
+# One pair of halfshafts often serves several engines, gearboxes or tyres. Remove the "# " of the
+# lines below to check a second engine as well: every check then runs for the base design and
+# for each [[variants]] entry (only [vehicle], [powertrain] and [loads] keys may differ).
+# [[variants]]
+# name = "stronger_engine"              # a name of your own
+# [variants.vehicle]
+# front_axle_load_n = 8800.0
+# [variants.powertrain]
+# engine_torque_nm = 260.0
 """
