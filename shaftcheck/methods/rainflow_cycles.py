@@ -164,6 +164,20 @@ class TorqueHistory:
     def _pose_shares(self) -> dict:
         return {}
 
+    @cached_property
+    def _binned(self) -> dict:
+        return {}
+
+    def binned(self, sides: tuple[str, ...] = SIDES, range_bins: int = RANGE_BINS_DEFAULT,
+               mean_bins: int = MEAN_BINS_DEFAULT) -> BinnedSpectrum:
+        """:func:`bin_cycles` of the counted cycles of ``sides`` scaled by :attr:`repeats`,
+        computed once per sides and bin counts."""
+        key = (tuple(sides), int(range_bins), int(mean_bins))
+        if key not in self._binned:
+            self._binned[key] = bin_cycles({s: self.cycles[s] for s in key[0]}, self.repeats,
+                                           key[1], key[2])
+        return self._binned[key]
+
     def pose_shares(self, side: str, travel_edges, rack_edges) -> tuple[np.ndarray, float]:
         """:func:`pose_time_shares` of one side's travel and the rack over the cells of the
         given edges [m], computed once per side and edges."""

@@ -164,8 +164,8 @@ def spectrum_of(history, range_bins: int | None = None,
     from shaftcheck.methods import rainflow_cycles as rc
 
     cycles = history.cycles
-    binned = rc.bin_cycles(cycles, history.repeats, range_bins or rc.RANGE_BINS_DEFAULT,
-                           mean_bins or rc.MEAN_BINS_DEFAULT)
+    binned = history.binned(tuple(cycles), range_bins or rc.RANGE_BINS_DEFAULT,
+                            mean_bins or rc.MEAN_BINS_DEFAULT)
     top = max((float(c.range.max()) for c in cycles.values() if c.range.size), default=0.0)
     edges = np.linspace(0.0, top if top > 0 else 1.0, HISTOGRAM_BINS + 1)
     sides = {s: SideCount(c.reversals, c.total, float(c.range.max()) if c.range.size else 0.0,

@@ -472,11 +472,9 @@ def run(design, ctx) -> tuple[StrengthResult, list[Check]]:
 def history_spectra(history) -> dict:
     """side -> spectrum bins (torque_min, torque_max, cycles) of the side's counted cycles,
     scaled to the design life (:func:`~shaftcheck.methods.rainflow_cycles.bin_cycles`)."""
-    from shaftcheck.methods.rainflow_cycles import bin_cycles
-
     out = {}
     for name in SIDES:
-        b = bin_cycles({name: history.cycles[name]}, history.repeats)
+        b = history.binned((name,))
         out[name] = [(x.torque_min, x.torque_max, x.cycles) for x in b.bins]
     return out
 
