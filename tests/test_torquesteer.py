@@ -501,3 +501,31 @@ def test_torque_steer_console_fits_80_columns():
     assert max(len(x) for x in lines) <= 80
     # numerical noise of the symmetric layout prints as 0, not as 1e-08 or -0.000
     assert "e-0" not in proc.stdout and "-0.000" not in proc.stdout
+
+
+def test_the_two_lines_give_what_the_whole_grid_gives():
+    # The study solves only its two lines through the design position (travel with the rack
+    # centred, rack at design travel); every result must equal the same quantity read from the
+    # whole travel x rack grid, bit for bit (each pose is computed on its own).
+    from conftest import INTERMEDIATE
+
+    from shaftcheck.io.design_file import load_design
+    from shaftcheck.studies import torque_steer as ts
+    from shaftcheck.studies.context import Context
+
+    design = load_design(INTERMEDIATE)
+    ctx = Context(design)
+    res, _ = ts.run(design, ctx)
+    travel, rack = ctx.torque_steer_travel, ctx.torque_steer_rack
+    i0, j0, il, ir = ts._indices(ctx, travel, rack)
+    full = {n: ts.side_grid(ctx, n, travel, rack) for n in ("left", "right")}
+    torque = ctx.design_torque
+    for curve, sel in ((res.heave, ((slice(None), j0), (slice(None), j0))),
+                       (res.roll, ((il, j0), (ir, j0))),
+                       (res.steer, ((i0, slice(None)), (i0, slice(None))))):
+        net, tsw = ts._per_nm_curve(design, full, *sel)
+        assert np.array_equal(curve.net_moment, torque * net), curve.condition
+        assert np.array_equal(curve.steering_wheel_torque, torque * tsw), curve.condition
+    sides, mechanisms, total = ts._budget(ctx, full, i0, j0, torque)
+    assert sides["left"] == res.left and sides["right"] == res.right
+    assert mechanisms == res.mechanisms and total == res.all_mechanisms

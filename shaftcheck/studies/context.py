@@ -164,6 +164,18 @@ class Context:
         return grid(*self.design.suspension.rack_travel, TORQUE_STEER_RACK_POINTS)
 
     @cached_property
+    def torque_steer_lines(self) -> tuple[tuple[np.ndarray, np.ndarray], ...]:
+        """The torque-steer study's grids [m]: its travel grid with the rack centred (heave,
+        roll, the design position) and its rack grid at design travel (steer) -- two lines, not
+        the whole travel x rack grid, which no torque-steer result reads. Without the design
+        position in the ranges the whole grid (the study then refuses the ranges)."""
+        t, r = self.torque_steer_travel, self.torque_steer_rack
+        i0, j0 = np.flatnonzero(t == 0.0), np.flatnonzero(r == 0.0)
+        if i0.size == 0 or j0.size == 0:
+            return ((t, r),)
+        return ((t, r[j0[0]:j0[0] + 1]), (t[i0[0]:i0[0] + 1], r))
+
+    @cached_property
     def pose_time(self) -> dict | None:
         """side -> PoseTime of the design's measured torque history: the share of the recorded
         time at each travel x rack cell (:func:`shaftcheck.studies.duty_cycle.pose_time_tables`);
@@ -178,9 +190,9 @@ class Context:
     @cached_property
     def _grids(self) -> tuple[tuple[np.ndarray, np.ndarray], ...]:
         """Every travel x rack grid [m] the studies of this context ask for: the geometry grid
-        (its zero-rack column serves the bearing placement), the torque-steer grid, the grid of
-        the bearing duty's poses and the cells of a measured history."""
-        grids = [(self.travel, self.rack), (self.torque_steer_travel, self.torque_steer_rack)]
+        (its zero-rack column serves the bearing placement), the torque-steer study's two lines,
+        the grid of the bearing duty's poses and the cells of a measured history."""
+        grids = [(self.travel, self.rack), *self.torque_steer_lines]
         if any(self.design.side(s).intermediate is not None for s in SIDES):
             from shaftcheck.studies.bearing import duty_poses  # bearing-life poses
 
@@ -329,8 +341,8 @@ class Context:
     #: what depends on the geometry alone (corner, sides, joints, criteria), not on [vehicle],
     #: [powertrain] or [loads]: a variant's context shares it (:meth:`derive`)
     GEOMETRY_VALUES = ("travel", "rack", "roll", "torque_steer_travel", "torque_steer_rack",
-                       "pose_time", "_grids", "_union", "_union_keys", "_own_grids",
-                       "stiffness", "mismatch_pct", "bearings", "design_geometry")
+                       "torque_steer_lines", "pose_time", "_grids", "_union", "_union_keys",
+                       "_own_grids", "stiffness", "mismatch_pct", "bearings", "design_geometry")
 
     @cached_property
     def _own_grids(self) -> dict:

@@ -439,13 +439,14 @@ def _mount_effect(ctx, grids, i0, j0, torque) -> Mechanism | None:
     return Mechanism("mounts", lv, rv, sw, float(eff.angle))
 
 
-def _selection(cond, i0, j0, il, ir):
-    """Index selections (left, right) of a condition on the grid."""
+def _selection(cond, il, ir):
+    """Index selections (left, right) of a condition: heave and roll on the travel line
+    (n_travel, 1), steer on the rack line (1, n_rack)."""
     if cond == "heave":
-        return (slice(None), j0), (slice(None), j0)
+        return (slice(None), 0), (slice(None), 0)
     if cond == "roll":
-        return (il, j0), (ir, j0)
-    return (i0, slice(None)), (i0, slice(None))
+        return (il, 0), (ir, 0)
+    return (0, slice(None)), (0, slice(None))
 
 
 def _per_nm_curve(design, grids, sel_l, sel_r):
@@ -463,13 +464,15 @@ def _dominant(grids, sel_l, sel_r, k) -> str:
     return max(nets, key=lambda key: abs(nets[key]))
 
 
-def _curves(ctx, grids, travel, rack, i0, j0, il, ir, torque):
-    """Heave, roll and steer curves, the throttle map and the worst case of each condition."""
+def _curves(ctx, lines, travel, rack, il, ir, torque):
+    """Heave, roll and steer curves, the throttle map and the worst case of each condition;
+    ``lines``: the side grids of the travel line and of the rack line (:func:`run`)."""
     design = ctx.design
     xs = {"heave": travel, "roll": ctx.roll, "steer": rack}
     curves, worst, per_nm = {}, [], {}
     for cond in ("heave", "roll", "steer"):
-        sel_l, sel_r = _selection(cond, i0, j0, il, ir)
+        grids = lines["rack" if cond == "steer" else "travel"]
+        sel_l, sel_r = _selection(cond, il, ir)
         net, tsw = _per_nm_curve(design, grids, sel_l, sel_r)
         per_nm[cond] = tsw
         curves[cond] = Curve(cond, np.asarray(xs[cond], float), torque * net, torque * tsw)
@@ -538,15 +541,21 @@ def run(design, ctx) -> tuple[TorqueSteerResult, list[Check]]:
     travel, rack = ctx.torque_steer_travel, ctx.torque_steer_rack
     torque = ctx.design_torque
     i0, j0, il, ir = _indices(ctx, travel, rack)
-    grids = {n: side_grid(ctx, n, travel, rack) for n in SIDES}
-    sides, mechs, total = _budget(ctx, grids, i0, j0, torque)
-    gl, gr = grids["left"].gain[i0, j0], grids["right"].gain[i0, j0]
+    # every result lies on two lines through the design position: heave and roll over the
+    # travel with the rack centred, steer over the rack at design travel (Context's
+    # torque_steer_lines, the same arrays, so the poses come from the one corner solve)
+    (t_line, r0), (t0, r_line) = ctx.torque_steer_lines
+    lines = {"travel": {n: side_grid(ctx, n, t_line, r0) for n in SIDES},
+             "rack": {n: side_grid(ctx, n, t0, r_line) for n in SIDES}}
+    grids = lines["travel"]
+    sides, mechs, total = _budget(ctx, grids, i0, 0, torque)
+    gl, gr = grids["left"].gain[i0, 0], grids["right"].gain[i0, 0]
     from shaftcheck.methods.torque_steer import rack_and_steering_wheel
 
     rack_res = rack_and_steering_wheel(sides["left"].total, sides["right"].total, gl, gr,
                                        design.vehicle.rack_travel_per_rev)
-    curves, tmap, worst = _curves(ctx, grids, travel, rack, i0, j0, il, ir, torque)
-    split = _split_mu(ctx, grids, i0, j0)
+    curves, tmap, worst = _curves(ctx, lines, travel, rack, il, ir, torque)
+    split = _split_mu(ctx, grids, i0, 0)
     crit = design.criteria
     limits = {"steering_wheel_torque": crit.steering_wheel_torque_max_nm,
               "steering_wheel_torque_lock": crit.steering_wheel_torque_lock_max_nm}
