@@ -30,7 +30,7 @@ bad pose (travel-major order), never a silent NaN.
 
 from __future__ import annotations
 
-from dataclasses import field, replace
+from dataclasses import field, fields, replace
 
 import numpy as np
 
@@ -127,13 +127,10 @@ class StrutHardPoints:
 
 
 @record
-class CornerPoses:
-    """Poses of one corner over a travel x rack grid; every point array has shape (nt, nr, 3) [m].
-
-    travel (nt,) [m], rack (nr,) [m]: the grid asked for (rack = +y shift of the tie-rod inner
-    point). spindle_axis and steering_axis are unit vectors; steering_axis points up, from the
-    lower ball joint to the strut top. Fields a table corner cannot give are None.
-    """
+class _PoseFields:
+    """The fields of a corner's poses: travel and rack [m] and the point arrays [m] (axes unit,
+    arm angle [rad]); fields a table corner cannot give are None. :class:`CornerPoses` lays
+    them out on a grid, :class:`PosePoints` at paired points."""
 
     travel: np.ndarray
     rack: np.ndarray
@@ -145,6 +142,16 @@ class CornerPoses:
     tie_rod_outer: np.ndarray | None = None
     tie_rod_inner: np.ndarray | None = None
     arm_angle: np.ndarray | None = field(default=None, repr=False)
+
+
+@record
+class CornerPoses(_PoseFields):
+    """Poses of one corner over a travel x rack grid; every point array has shape (nt, nr, 3) [m].
+
+    travel (nt,) [m], rack (nr,) [m]: the grid asked for (rack = +y shift of the tie-rod inner
+    point). spindle_axis and steering_axis are unit vectors; steering_axis points up, from the
+    lower ball joint to the strut top. Fields a table corner cannot give are None.
+    """
 
     def contact_patch(self, loaded_radius: float) -> np.ndarray:
         """Contact-patch centre C = W - R u, (nt, nr, 3) [m], R = loaded radius [m].
@@ -159,20 +166,6 @@ class CornerPoses:
         up = unit(z - np.sum(z * b, axis=-1, keepdims=True) * b)
         return self.wheel_centre - float(loaded_radius) * up
 
-    def take(self, travel_index, rack_index) -> CornerPoses:
-        """The sub-grid at the given travel (nt',) and rack (nr',) indices."""
-        ti = np.asarray(travel_index, dtype=int)
-        rj = np.asarray(rack_index, dtype=int)
-        grid = np.ix_(ti, rj)
-
-        def sub(a):
-            return None if a is None else a[grid]
-
-        return CornerPoses(self.travel[ti], self.rack[rj], sub(self.wheel_centre),
-                           sub(self.spindle_axis), sub(self.outboard_joint_centre),
-                           sub(self.lower_ball_joint), sub(self.steering_axis),
-                           sub(self.tie_rod_outer), sub(self.tie_rod_inner), sub(self.arm_angle))
-
     def at(self, i: int, j: int) -> dict[str, np.ndarray]:
         """The pose at travel index i and rack index j as a dict of 3-vectors."""
         names = ("wheel_centre", "spindle_axis", "outboard_joint_centre", "lower_ball_joint",
@@ -181,34 +174,18 @@ class CornerPoses:
 
 
 @record
-class PosePoints:
+class PosePoints(_PoseFields):
     """Poses of one corner at paired points: pose k is at travel[k], rack[k] [m] (n,); every
-    point array has shape (n, 3) [m]. Fields as :class:`CornerPoses`."""
-
-    travel: np.ndarray
-    rack: np.ndarray
-    wheel_centre: np.ndarray
-    spindle_axis: np.ndarray
-    outboard_joint_centre: np.ndarray
-    lower_ball_joint: np.ndarray | None = None
-    steering_axis: np.ndarray | None = None
-    tie_rod_outer: np.ndarray | None = None
-    tie_rod_inner: np.ndarray | None = None
-    arm_angle: np.ndarray | None = field(default=None, repr=False)
+    point array has shape (n, 3) [m]."""
 
     def grid(self, travel, rack, index) -> CornerPoses:
         """CornerPoses of the grid travel (nt,) x rack (nr,) [m] whose pose (i, j) is point
         ``index[i, j]`` (the caller matches the points to the grid)."""
         index = np.asarray(index, dtype=int)
-
-        def sub(a):
-            return None if a is None else a[index]
-
+        arrays = {f.name: getattr(self, f.name) for f in fields(_PoseFields)
+                  if f.name not in ("travel", "rack")}
         return CornerPoses(np.asarray(travel, float), np.asarray(rack, float),
-                           sub(self.wheel_centre), sub(self.spindle_axis),
-                           sub(self.outboard_joint_centre), sub(self.lower_ball_joint),
-                           sub(self.steering_axis), sub(self.tie_rod_outer),
-                           sub(self.tie_rod_inner), sub(self.arm_angle))
+                           **{n: None if a is None else a[index] for n, a in arrays.items()})
 
 
 @record

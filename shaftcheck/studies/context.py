@@ -167,12 +167,13 @@ class Context:
     def torque_steer_lines(self) -> tuple[tuple[np.ndarray, np.ndarray], ...]:
         """The torque-steer study's grids [m]: its travel grid with the rack centred (heave,
         roll, the design position) and its rack grid at design travel (steer) -- two lines, not
-        the whole travel x rack grid, which no torque-steer result reads. Without the design
-        position in the ranges the whole grid (the study then refuses the ranges)."""
+        the whole travel x rack grid, which no torque-steer result reads. None without the
+        design position in the ranges (the study refuses such ranges before it asks for a
+        pose)."""
         t, r = self.torque_steer_travel, self.torque_steer_rack
         i0, j0 = np.flatnonzero(t == 0.0), np.flatnonzero(r == 0.0)
         if i0.size == 0 or j0.size == 0:
-            return ((t, r),)
+            return ()
         return ((t, r[j0[0]:j0[0] + 1]), (t[i0[0]:i0[0] + 1], r))
 
     @cached_property
@@ -235,35 +236,18 @@ class Context:
         return pos if np.array_equal(keys[pos], wanted) else None
 
     # --- corner poses ---------------------------------------------------------------------------
-    def _corner(self, side: str):
-        """(suspension model, hard points or table, outboard joint offset [m]) of one side."""
-        s = self.design.suspension
-        c = s.left if side == "left" else s.right
-        if s.model == "strut":
-            return "strut", strut_hard_points(self.design, side), c.outboard_joint_offset
-        return "table", (s.left_table if side == "left" else s.right_table), \
-            c.outboard_joint_offset
-
     def _solve(self, side: str, travel: np.ndarray, rack: np.ndarray):
-        """CornerPoses of a grid outside the union (one counted solve)."""
-        from shaftcheck.methods.halfshaft_geometry import solve_strut
-
-        self.corner_solves += 1
-        model, corner, offset = self._corner(side)
-        if model == "strut":
-            return solve_strut(corner, travel, rack, side)
-        return corner.poses(travel, rack, offset, side)
-
-    def _solve_union(self, side: str):
-        """PosePoints of the union pairs (one counted solve)."""
+        """PosePoints of one side at the paired points travel[k], rack[k] [m] (one counted
+        corner solve)."""
         from shaftcheck.methods.halfshaft_geometry import solve_strut_points
 
         self.corner_solves += 1
-        travel, rack = self._union
-        model, corner, offset = self._corner(side)
-        if model == "strut":
-            return solve_strut_points(corner, travel, rack, side)
-        return corner.poses_at(travel, rack, offset, side)
+        s = self.design.suspension
+        c = s.left if side == "left" else s.right
+        if s.model == "strut":
+            return solve_strut_points(strut_hard_points(self.design, side), travel, rack, side)
+        table = s.left_table if side == "left" else s.right_table
+        return table.poses_at(travel, rack, c.outboard_joint_offset, side)
 
     def poses(self, side: str, travel=None, rack=None):
         """CornerPoses of one side over travel x rack [m] (default: the geometry grid).
@@ -283,14 +267,16 @@ class Context:
 
     def _slice(self, side: str, travel: np.ndarray, rack: np.ndarray):
         index = self._locate(travel, rack)
-        if index is None:
-            key = (side, travel.tobytes(), rack.tobytes())
-            if key not in self._own_grids:
-                self._own_grids[key] = self._solve(side, travel, rack)
-            return self._own_grids[key].take(np.arange(travel.size), np.arange(rack.size))
-        if side not in self._poses:
-            self._poses[side] = self._solve_union(side)
-        return self._poses[side].grid(travel, rack, index)
+        if index is not None:
+            if side not in self._poses:
+                self._poses[side] = self._solve(side, *self._union)
+            return self._poses[side].grid(travel, rack, index)
+        key = (side, travel.tobytes(), rack.tobytes())
+        if key not in self._own_grids:  # a grid of the caller's own: its poses, travel-major
+            t, r = np.meshgrid(travel, rack, indexing="ij")
+            self._own_grids[key] = self._solve(side, t.ravel(), r.ravel())
+        return self._own_grids[key].grid(travel, rack,
+                                         np.arange(travel.size * rack.size).reshape(-1, rack.size))
 
     # --- intermediate shaft and design geometry -------------------------------------------------
     @cached_property
@@ -346,7 +332,7 @@ class Context:
 
     @cached_property
     def _own_grids(self) -> dict:
-        """(side, travel, rack) -> CornerPoses of the grids outside the union grid."""
+        """(side, travel, rack) -> PosePoints of each grid outside the union."""
         return {}
 
     def derive(self, design) -> Context:
