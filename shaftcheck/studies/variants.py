@@ -87,20 +87,18 @@ def governing_rows(cases: list[tuple[str, Result]]) -> list[Check]:
     (e.g. the split-friction check of a limited-slip variant), in their order."""
     order: list[tuple[str, str]] = []
     worst: dict[tuple[str, str], Check] = {}
-    values: dict[tuple[str, str], set] = {}
+    values: dict[tuple[str, str], list] = {}  # each case's (value, limit, outside) of a row
     for name, res in cases:
         for c in res.checks:
             key = (c.id, c.side)
-            values.setdefault(key, set()).add((c.value, c.limit, c.outside_method))
+            values.setdefault(key, []).append((c.value, c.limit, c.outside_method))
             if key not in worst:
                 order.append(key)
                 worst[key] = dataclasses.replace(c, variant=name)
             elif _margin(c) < _margin(worst[key]):
                 worst[key] = dataclasses.replace(c, variant=name)
-    counts = {k: sum(any((c.id, c.side) == k for c in res.checks) for _, res in cases)
-              for k in order}
     alike = {k for k in order
-             if len(cases) > 1 and counts[k] == len(cases) and len(values[k]) == 1}
+             if len(cases) > 1 and len(values[k]) == len(cases) and len(set(values[k])) == 1}
     return [dataclasses.replace(worst[k], variants_alike=True) if k in alike else worst[k]
             for k in order]
 
